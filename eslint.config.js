@@ -1,0 +1,65 @@
+// Lint: TypeScript + Vue, and the architecture boundaries of STYLE.md (habits 1, 2, 4, 17).
+import tseslint from 'typescript-eslint';
+import pluginVue from 'eslint-plugin-vue';
+import jsdoc from 'eslint-plugin-jsdoc';
+import globals from 'globals';
+
+const frameworks = ['vue', 'vue-router', 'pinia', 'quasar', 'express', 'sequelize', 'sqlite3', 'echarts', 'vue-echarts'];
+
+export default tseslint.config(
+  { ignores: ['dist/**', 'node_modules/**', 'data/**', 'coverage/**', '.e2e-artifacts/**', '.tmp/**'] },
+  ...tseslint.configs.recommended,
+  ...pluginVue.configs['flat/recommended'],
+  {
+    files: ['**/*.vue'],
+    languageOptions: { parserOptions: { parser: tseslint.parser, extraFileExtensions: ['.vue'] } },
+  },
+  {
+    languageOptions: { globals: { ...globals.node, ...globals.browser } },
+    rules: {
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      'vue/multi-word-component-names': 'off',
+      'vue/max-attributes-per-line': 'off',
+      'vue/singleline-html-element-content-newline': 'off',
+      'vue/html-self-closing': 'off',
+    },
+  },
+  // src/ and server/ reach the core only through its barrel.
+  {
+    files: ['src/**/*.{ts,vue}', 'server/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: [{ group: ['**/shared/control/*', '!**/shared/control/index', '!**/shared/control'], message: 'Import the core only from shared/control (its index.ts).' }] }],
+    },
+  },
+  // Handlers never touch the ORM (STYLE habit 17).
+  {
+    files: ['server/**/routes.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { paths: ['sequelize'], patterns: [{ group: ['**/model', '**/models/*'], message: 'Routes call services; only repositories use models.' }, { group: ['**/shared/control/*', '!**/shared/control/index', '!**/shared/control'], message: 'Import the core only from shared/control.' }] }],
+    },
+  },
+  // The core is pure: nothing from frameworks, node or the app; only mathjs.
+  {
+    files: ['shared/control/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { paths: [...frameworks, 'zod'], patterns: [{ group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*'], message: 'shared/control imports nothing outside itself but mathjs.' }] }],
+    },
+  },
+  {
+    files: ['shared/api/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { paths: frameworks.filter((f) => f !== 'zod'), patterns: [{ group: ['node:*', '**/src/**', '**/server/**'], message: 'shared/api imports only zod (and types of the core).' }] }],
+    },
+  },
+  // Every export of the core is documented (STYLE habit 4).
+  {
+    files: ['shared/**/*.ts'],
+    plugins: { jsdoc },
+    rules: {
+      'jsdoc/require-jsdoc': ['error', { publicOnly: true, require: { FunctionDeclaration: true, ArrowFunctionExpression: false }, contexts: ['TSInterfaceDeclaration', 'TSTypeAliasDeclaration'] }],
+      'jsdoc/require-param': ['error', { checkDestructured: false }],
+      'jsdoc/require-returns': 'error',
+      'jsdoc/check-param-names': ['error', { checkDestructured: false }],
+    },
+  },
+);

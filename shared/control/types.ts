@@ -1,0 +1,216 @@
+/**
+ * Public data types of the Varsmith numerical core (CONTRACT sections 1 and 3).
+ *
+ * SI units everywhere; the unit is in the key. These shapes are a public interface: fields may be
+ * added, never renamed or removed. Every value that can be absent is `number | null` (never NaN or
+ * Infinity, which do not survive JSON).
+ */
+
+/** L filter: one inductor with its series resistance. */
+export interface LFilterInput {
+  topology: 'L';
+  inductanceH: number;
+  resistanceOhm: number;
+}
+
+/** LCL filter: inverter-side L1 (with `resistanceOhm` in series), grid-side L2, Cf with series damping Rd. */
+export interface LclFilterInput {
+  topology: 'LCL';
+  inverterInductanceH: number;
+  gridInductanceH: number;
+  capacitanceF: number;
+  dampingResistanceOhm: number;
+  resistanceOhm: number;
+}
+
+/** Output filter of the power stage, discriminated by topology. */
+export type FilterInput = LFilterInput | LclFilterInput;
+
+/** A `varsmith-design/1` design file (CONTRACT section 1). `null` gains are designed from the targets. */
+export interface DesignInput {
+  format: 'varsmith-design/1';
+  name: string;
+  grid: { voltageRmsV: number; frequencyHz: number };
+  rating: { apparentPowerVA: number };
+  filter: FilterInput;
+  dcLink: { capacitanceF: number; voltageRefV: number };
+  sampling: { switchingFrequencyHz: number; updatesPerCarrier: number; computationDelaySamples: number };
+  currentLoop: {
+    crossoverHz: number;
+    harmonics: number[];
+    resonantBandwidthHz: number;
+    kp: number | null;
+    resonantGains: number[] | null;
+  };
+  voltageLoop: { crossoverHz: number; phaseMarginDeg: number; kp: number | null; ki: number | null };
+  pll: { sogiGain: number; settlingTimeS: number; dampingRatio: number; kp: number | null; ki: number | null };
+  reactiveFilter: { order: 1 | 2; cutoffHz: number };
+  fixedPoint: { wordBits: 16 | 32 };
+}
+
+/** Identifier of a controller block (CONTRACT section 3). */
+export type BlockId = 'voltage-pi' | 'pll-pi' | 'current-pr' | 'sogi-d' | 'sogi-q' | 'reactive-lpf';
+
+/** Identifier of an analysed sampled loop. */
+export type LoopId = 'current' | 'voltage' | 'pll';
+
+/** Severity of a check: `error` blocks a release. */
+export type Severity = 'error' | 'warning' | 'info';
+
+/**
+ * What a second-order section is, so fixed-point analysis knows which properties matter:
+ * `gain` (b0 only), `pi` (Tustin integrator plus gain, pole at z = 1 by design), `resonator`
+ * (band-pass at a harmonic), `sogi-band-pass`, `sogi-low-pass` (share the SOGI denominator),
+ * `low-pass` (unity-DC-gain estimator filter).
+ */
+export type SectionKind = 'gain' | 'pi' | 'resonator' | 'sogi-band-pass' | 'sogi-low-pass' | 'low-pass';
+
+/** One finding of the plant, design, stability or fixed-point checks. */
+export interface Check {
+  /** Stable kebab-case id, e.g. `pr-h1-quantization-drift`. */
+  id: string;
+  severity: Severity;
+  /** Human-readable sentence; errors and warnings name a remedy. */
+  message: string;
+  value: number | null;
+  limit: number | null;
+  unit: string | null;
+  /** Block the check belongs to, when it belongs to one. */
+  blockId?: BlockId | null;
+  /** What to do about it (errors and warnings). */
+  remedy?: string | null;
+}
+
+/** Quantized coefficients of one section (CONTRACT section 3, fixed point). */
+export interface FixedCoefficients {
+  /** Word length W in bits (16 or 32). */
+  wordBits: number;
+  /** Fraction bits F: largest integer <= 62 with every round(c * 2^F) within +-(2^(W-1) - 1). */
+  fracBits: number;
+  /** round-half-away-from-zero(b_i * 2^F), three entries. */
+  b: number[];
+  /** round-half-away-from-zero(a_i * 2^F), three entries (a[0] = 2^F when it fits). */
+  a: number[];
+  /** Label such as `Q1.30` (integer bits including sign . fraction bits); negative integer bits allowed as `Q-3.34`. */
+  qFormat: string;
+}
+
+/** One second-order section: y = sum b_i x[n-i] - sum_{i>=1} a_i y[n-i]. */
+export interface SectionResult {
+  /** `proportional`, `resonant-h<h>`, `pi`, `band-pass`, `low-pass`. */
+  role: string;
+  kind: SectionKind;
+  /** Prewarp frequency in Hz, null when not prewarped. */
+  prewarpHz: number | null;
+  /** Numerator in powers of z^-1, three entries (zero-padded). */
+  b: number[];
+  /** Denominator in powers of z^-1, three entries, a[0] = 1. */
+  a: number[];
+  /** Resonator and SOGI sections: centre frequency acos(-a1/(1+a2))/(2*pi*Ts). */
+  resonanceHz?: { design: number; discrete: number | null; fixed: number | null };
+  /** Resonator sections: where the resonance lands with other discretizations (Hz), for comparison. */
+  resonanceByMethodHz?: Record<string, number | null>;
+  fixed: FixedCoefficients;
+  /** Fixed-point properties of this section (headroom, dead band, DC gain...). */
+  fixedAnalysis?: FixedSectionAnalysis;
+}
+
+/** Fixed-point properties of a quantized section, computed by `analyzeFixedSection`. */
+export interface FixedSectionAnalysis {
+  /** DC gain H(1) from the double and the quantized coefficients (null where H(1) is infinite). */
+  dcGain: { discrete: number | null; fixed: number | null };
+  /** Largest pole radius of the quantized section. */
+  maxPoleRadiusFixed: number;
+  /** l1 norm of the impulse response to the output (worst-case gain for a full-scale input); null = unbounded. */
+  outputL1Norm: number | null;
+  /** Integer bits the output/state needs beyond the signal word for a full-scale input; null = unbounded. */
+  headroomBits: number | null;
+  /** Dead band: how many LSB the output can stall off its true value with round-to-nearest (null when not recursive). */
+  deadbandLsb: number | null;
+  /** Coefficients whose double value is non-zero but quantize to 0. */
+  lostCoefficients: string[];
+}
+
+/** One designed, discretized, quantized controller block. */
+export interface BlockResult {
+  id: BlockId;
+  /** `tustin`, `tustin-prewarp` or `none` (pure gain). */
+  method: 'tustin' | 'tustin-prewarp' | 'none';
+  /** The gains in use (designed or overridden), SI / per-unit as documented per block. */
+  gains: Record<string, number | number[]>;
+  /** Whether each gain came from the design rule or from the design file. */
+  gainSource?: Record<string, 'rule' | 'override'>;
+  /** Parallel second-order sections; the block output is their sum. */
+  sections: SectionResult[];
+}
+
+/** One unity-gain or -180 degree crossing of an open loop. */
+export interface LoopCrossing {
+  frequencyHz: number;
+  /** Phase margin (unity-gain crossing) in degrees or gain margin (phase crossing) in dB. */
+  marginValue: number;
+  kind: 'gain-crossover' | 'phase-crossover';
+}
+
+/** Stability summary of one sampled loop (CONTRACT section 3). */
+export interface LoopResult {
+  id: LoopId;
+  /** Highest unity-gain crossing, null when |L| never crosses 1. */
+  crossoverHz: number | null;
+  /** Worst phase margin over all unity-gain crossings, null when there is none. */
+  phaseMarginDeg: number | null;
+  /** Worst gain margin over the -180 degree crossings with |L| < 1; null when there is none. */
+  gainMarginDb: number | null;
+  /** max |1/(1+L)| over 0..Nyquist. */
+  peakSensitivity: number;
+  /** Roots of the closed-loop characteristic polynomial, as [re, im]. */
+  closedLoopPoles: [number, number][];
+  maxPoleRadius: number;
+  stable: boolean;
+  crossings?: LoopCrossing[];
+  /** Why a margin is null, when one is. */
+  notes?: string[];
+}
+
+/** Frequency response sampled on a grid, for plots. */
+export interface FrequencyResponseData {
+  frequencyHz: number[];
+  magnitudeDb: number[];
+  phaseDeg: number[];
+}
+
+/** Time response sampled at the loop's sampling period, for plots. */
+export interface TimeResponseData {
+  timeS: number[];
+  value: number[];
+  /** What `value` is, with unit, e.g. `inverter current (A) for a 1 A reference step`. */
+  label: string;
+}
+
+/** Plot data: open-loop frequency responses per loop and the four step responses. */
+export interface AnalysisResponses {
+  openLoop: Record<LoopId, FrequencyResponseData>;
+  /** `current-step`, `pll-phase-step`, `dc-link-load-step`, `estimator-step`. */
+  time: Record<string, TimeResponseData>;
+  /** Open-loop poles and zeros per loop in the z plane, as [re, im]. */
+  poleZero?: Record<LoopId, { poles: [number, number][]; zeros: [number, number][] }>;
+}
+
+/** Explicit analysis options (no hidden defaults change numbers). */
+export interface AnalysisOptions {
+  /** Points per frequency sweep (log-spaced up to Nyquist); 0 = no plot data. */
+  sweepPoints: number;
+  /** Samples per time response; 0 = no time responses. */
+  responseSamples: number;
+}
+
+/** A `varsmith-analysis/1` result (CONTRACT section 3). */
+export interface AnalysisResult {
+  format: 'varsmith-analysis/1';
+  sampleTimeS: number;
+  blocks: BlockResult[];
+  loops: LoopResult[];
+  plant: Record<string, number | boolean | string | null>;
+  checks: Check[];
+  responses?: AnalysisResponses;
+}
