@@ -129,6 +129,8 @@ export interface FixedSectionAnalysis {
   deadbandLsb: number | null;
   /** Coefficients whose double value is non-zero but quantize to 0. */
   lostCoefficients: string[];
+  /** Why a field is null (unbounded state, lost integral, not recursive), one sentence each. */
+  notes?: string[];
 }
 
 /** One designed, discretized, quantized controller block. */
