@@ -1,26 +1,347 @@
 import type { FixedCoefficients } from './types';
 
-// PLACEHOLDER SIGNATURES — to be implemented by the fixed-point work (Core-B). Keep the names.
-
 /**
- * Bit-exact Direct Form I run of one section (CONTRACT section 3) (placeholder).
- * @param fixed - quantized coefficients.
- * @param input - W-bit integer input samples.
- * @returns W-bit integer outputs.
+ * The reference fixed-point arithmetic of CONTRACT section 3, as data, so the exported C source,
+ * the report and this model state the same rules (the Export templates print these fields).
+ *
+ * Per sample, for a section with integers bq[0..2], aq[0..2] (aq[0] = 2^F) and fraction bits F:
+ * ```
+ * acc  = bq0*x[n] + bq1*x[n-1] + bq2*x[n-2] - aq1*y[n-1] - aq2*y[n-2]     (exact, 64-bit)
+ * y[n] = sat_W((acc + 2^(F-1)) >> F)                                      (>> is arithmetic: floor)
+ * ```
+ * - Signals x and y are W-bit integers within the symmetric range [-(2^(W-1) - 1), 2^(W-1) - 1];
+ *   saturation clamps to that range, so -2^(W-1) never occurs and negation never overflows.
+ * - Rounding: adding 2^(F-1) before the floor shift is round-half-up (ties towards +infinity);
+ *   with F = 0 the rounding constant is 0 (no shift). F < 0 is refused.
+ * - Accumulator: signed 64-bit. Signed overflow is undefined behaviour in C, so nothing relies on
+ *   wrap-around: the model throws {@link AccumulatorOverflowError} for any sample where
+ *   |bq0*x0| + |bq1*x1| + |bq2*x2| + |aq1*y1| + |aq2*y2| + 2^(F-1) > 2^63 - 1, which guarantees
+ *   that every partial sum in any summation order fits int64. Golden vectors are built so that
+ *   this bound holds for every possible output, hence also in the C code.
+ * - Block: the output of a block of parallel sections is sat_W(sum of the section outputs), each
+ *   section output saturated first; the sum is formed in 64 bits (at most a few W-bit terms).
+ * - State after reset: x[n-1] = x[n-2] = y[n-1] = y[n-2] = 0. The stored y is the saturated output.
  */
-export function runFixedSection(fixed: FixedCoefficients, input: readonly number[]): number[] {
-  void fixed; void input;
-  throw new Error('runFixedSection: not implemented');
+export const FIXED_ARITHMETIC = {
+  structure: 'direct-form-1',
+  accumulatorBits: 64,
+  /** Saturation bounds of a W-bit signal, as a function of W. */
+  saturation: 'symmetric',
+  saturationMaxFormula: '2^(W-1) - 1',
+  saturationMinFormula: '-(2^(W-1) - 1)',
+  roundingConstantFormula: '2^(F-1) for F >= 1, 0 for F = 0',
+  shift: 'arithmetic right shift by F (floor division by 2^F)',
+  rounding: 'half-up (ties towards +infinity)',
+  accumulatorOverflow: 'never occurs: |b0 x0| + |b1 x1| + |b2 x2| + |a1 y1| + |a2 y2| + 2^(F-1) <= 2^63 - 1 is asserted per sample',
+  blockSum: 'sat_W(sum of saturated section outputs), summed in 64 bits',
+  resetState: 'x[n-1] = x[n-2] = y[n-1] = y[n-2] = 0',
+  coefficientRounding: 'round half away from zero of c * 2^F, F largest integer <= 62 with every code within +-(2^(W-1) - 1)',
+} as const;
+
+/** Error of the bit-exact model: `code` tells which rule a call broke. */
+export class FixedArithmeticError extends Error {
+  /** Stable machine-readable reason. */
+  readonly code: 'invalid-coefficients' | 'invalid-input' | 'accumulator-overflow';
+  /**
+   * @param code - machine-readable reason.
+   * @param message - human-readable sentence naming the offending value.
+   */
+  constructor(code: FixedArithmeticError['code'], message: string) {
+    super(message);
+    this.name = 'FixedArithmeticError';
+    this.code = code;
+  }
+}
+
+/** The 64-bit accumulator bound of {@link FIXED_ARITHMETIC} would be exceeded (some summation order could overflow int64). */
+export class AccumulatorOverflowError extends FixedArithmeticError {
+  /** Sample index at which the bound was exceeded. */
+  readonly sampleIndex: number;
+  /**
+   * @param sampleIndex - index of the offending sample.
+   * @param message - description with the magnitude sum.
+   */
+  constructor(sampleIndex: number, message: string) {
+    super('accumulator-overflow', message);
+    this.name = 'AccumulatorOverflowError';
+    this.sampleIndex = sampleIndex;
+  }
 }
 
 /**
- * Bit-exact run of a block of parallel sections: output = sat_W(sum of section outputs) (placeholder).
- * @param sections - quantized sections of the block.
- * @param input - W-bit integer input samples.
+ * Largest signal magnitude of a W-bit word under the symmetric saturation of {@link FIXED_ARITHMETIC}.
+ *
+ * @param wordBits - W (2 to 53).
+ * @returns 2^(W-1) - 1.
+ * @example
+ * signalMax(16); // => 32767
+ */
+export function signalMax(wordBits: number): number {
+  return 2 ** (wordBits - 1) - 1;
+}
+
+/**
+ * Saturates an integer to the symmetric W-bit range [-(2^(W-1) - 1), 2^(W-1) - 1].
+ *
+ * @param value - integer (number or bigint).
  * @param wordBits - W.
- * @returns W-bit integer outputs.
+ * @returns the clamped value as a number.
+ * @example
+ * saturateToWord(40000, 16); // => 32767
+ * saturateToWord(-32768, 16); // => -32767
+ */
+export function saturateToWord(value: number | bigint, wordBits: number): number {
+  const max = signalMax(wordBits);
+  if (typeof value === 'bigint') {
+    const bigMax = BigInt(max);
+    if (value > bigMax) return max;
+    if (value < -bigMax) return -max;
+    return Number(value);
+  }
+  if (value > max) return max;
+  if (value < -max) return -max;
+  return value;
+}
+
+/** Delay-line state of one section: the last two inputs and the last two (saturated) outputs. */
+export interface FixedSectionState {
+  /** The section this state belongs to (validated). */
+  readonly fixed: FixedCoefficients;
+  /** x[n-1], x[n-2], y[n-1], y[n-2] as W-bit integers. */
+  x1: number;
+  x2: number;
+  y1: number;
+  y2: number;
+  /** Samples processed since creation or the last reset (used in error messages). */
+  sampleIndex: number;
+}
+
+const INT64_MAX = (1n << 63n) - 1n;
+
+/**
+ * Checks that a quantized section can run in the reference arithmetic.
+ *
+ * @param fixed - quantized coefficients.
+ * @throws FixedArithmeticError when W is not an integer in [2, 32], F is not an integer in
+ *   [0, W - 2], aq[0] is not 2^F, or a coefficient is not an integer within +-(2^(W-1) - 1).
+ * @returns nothing.
+ * @example
+ * validateFixedCoefficients({ wordBits: 16, fracBits: 14, b: [0, 0, 0], a: [16384, -32764, 16384], qFormat: 'Q2.14' });
+ */
+export function validateFixedCoefficients(fixed: FixedCoefficients): void {
+  const { wordBits, fracBits } = fixed;
+  if (!Number.isInteger(wordBits) || wordBits < 2 || wordBits > 32) {
+    throw new FixedArithmeticError('invalid-coefficients', `wordBits must be an integer in [2, 32], got ${wordBits}`);
+  }
+  if (!Number.isInteger(fracBits) || fracBits < 0 || fracBits > wordBits - 2) {
+    throw new FixedArithmeticError('invalid-coefficients', `fracBits must be an integer in [0, ${wordBits - 2}] for ${wordBits}-bit words, got ${fracBits} (coefficients too large for the word)`);
+  }
+  if (fixed.b.length !== 3 || fixed.a.length !== 3) {
+    throw new FixedArithmeticError('invalid-coefficients', `b and a need three entries, got ${fixed.b.length} and ${fixed.a.length}`);
+  }
+  const limit = signalMax(wordBits);
+  [...fixed.b, ...fixed.a].forEach((c, i) => {
+    if (!Number.isInteger(c) || Math.abs(c) > limit) {
+      const name = i < 3 ? `b[${i}]` : `a[${i - 3}]`;
+      throw new FixedArithmeticError('invalid-coefficients', `${name} must be an integer within +-${limit}, got ${c}`);
+    }
+  });
+  if (fixed.a[0] !== 2 ** fracBits) {
+    throw new FixedArithmeticError('invalid-coefficients', `a[0] must be 2^F = ${2 ** fracBits}, got ${fixed.a[0]}`);
+  }
+}
+
+/**
+ * Rounding constant added before the shift: 2^(F-1) for F >= 1, 0 for F = 0.
+ *
+ * @param fracBits - F (>= 0).
+ * @returns the constant.
+ * @example
+ * roundingConstant(14); // => 8192
+ */
+export function roundingConstant(fracBits: number): number {
+  return fracBits >= 1 ? 2 ** (fracBits - 1) : 0;
+}
+
+/**
+ * Largest input magnitude for which the accumulator bound of {@link FIXED_ARITHMETIC} holds for
+ * every sample whatever the outputs (outputs are bounded by the saturated word):
+ * `(|bq0| + |bq1| + |bq2|) * X + (|aq1| + |aq2|) * (2^(W-1) - 1) + 2^(F-1) <= 2^63 - 1`, capped at 2^(W-1) - 1.
+ *
+ * @param fixed - quantized coefficients.
+ * @returns X, an integer in [0, 2^(W-1) - 1] (input LSB).
+ * @example
+ * safeInputMagnitude({ wordBits: 16, fracBits: 14, b: [0, 0, 0], a: [16384, -32764, 16384], qFormat: 'Q2.14' }); // => 32767
+ */
+export function safeInputMagnitude(fixed: FixedCoefficients): number {
+  validateFixedCoefficients(fixed);
+  const max = BigInt(signalMax(fixed.wordBits));
+  const sumB = fixed.b.reduce((s, c) => s + BigInt(Math.abs(c)), 0n);
+  const sumA = BigInt(Math.abs(fixed.a[1])) + BigInt(Math.abs(fixed.a[2]));
+  const room = INT64_MAX - sumA * max - BigInt(roundingConstant(fixed.fracBits));
+  if (room < 0n) return 0;
+  if (sumB === 0n) return Number(max);
+  const x = room / sumB;
+  return Number(x < max ? x : max);
+}
+
+/**
+ * Creates the reset state of one section for {@link stepFixedSection} (all delays zero).
+ *
+ * @param fixed - quantized coefficients (validated here).
+ * @returns a fresh state bound to `fixed`.
+ * @example
+ * const state = createFixedSectionState(fixed); // state.x1 === 0
+ */
+export function createFixedSectionState(fixed: FixedCoefficients): FixedSectionState {
+  validateFixedCoefficients(fixed);
+  return { fixed, x1: 0, x2: 0, y1: 0, y2: 0, sampleIndex: 0 };
+}
+
+/**
+ * Resets a section state to zero delays (what the C reset routine does).
+ *
+ * @param state - the state to clear (mutated).
+ * @returns nothing.
+ * @example
+ * resetFixedSectionState(state); // state.y1 === 0
+ */
+export function resetFixedSectionState(state: FixedSectionState): void {
+  state.x1 = 0;
+  state.x2 = 0;
+  state.y1 = 0;
+  state.y2 = 0;
+  state.sampleIndex = 0;
+}
+
+/**
+ * One sample of the bit-exact Direct Form I section (rules in {@link FIXED_ARITHMETIC}).
+ *
+ * @param state - section state (mutated: delays shift by one sample).
+ * @param input - x[n], an integer within +-(2^(W-1) - 1) (input LSB).
+ * @returns y[n], the saturated W-bit output (output LSB).
+ * @throws FixedArithmeticError for a non-integer or out-of-range input, AccumulatorOverflowError
+ *   when the accumulator bound fails.
+ * @example
+ * const s = createFixedSectionState({ wordBits: 16, fracBits: 14, b: [16384, 0, 0], a: [16384, 0, 0], qFormat: 'Q2.14' });
+ * stepFixedSection(s, 1234); // => 1234 (unity gain)
+ */
+export function stepFixedSection(state: FixedSectionState, input: number): number {
+  const { fixed } = state;
+  const max = signalMax(fixed.wordBits);
+  if (!Number.isInteger(input) || Math.abs(input) > max) {
+    throw new FixedArithmeticError('invalid-input', `input sample ${state.sampleIndex} must be an integer within +-${max}, got ${input}`);
+  }
+  const [b0, b1, b2] = fixed.b;
+  const [, a1, a2] = fixed.a;
+  const f = fixed.fracBits;
+  const rc = roundingConstant(f);
+  const magnitude = Math.abs(b0 * input) + Math.abs(b1 * state.x1) + Math.abs(b2 * state.x2) + Math.abs(a1 * state.y1) + Math.abs(a2 * state.y2) + rc;
+  let y: number;
+  if (magnitude < 2 ** 53) {
+    // Every product and partial sum is an exact integer in binary64; division by 2^F is exact and
+    // Math.floor is the arithmetic shift.
+    const acc = b0 * input + b1 * state.x1 + b2 * state.x2 - a1 * state.y1 - a2 * state.y2 + rc;
+    y = saturateToWord(Math.floor(acc / 2 ** f), fixed.wordBits);
+  } else {
+    const terms = [BigInt(b0) * BigInt(input), BigInt(b1) * BigInt(state.x1), BigInt(b2) * BigInt(state.x2), -BigInt(a1) * BigInt(state.y1), -BigInt(a2) * BigInt(state.y2)];
+    const bound = terms.reduce((s, t) => s + (t < 0n ? -t : t), 0n) + BigInt(rc);
+    if (bound > INT64_MAX) {
+      throw new AccumulatorOverflowError(state.sampleIndex, `accumulator bound exceeded at sample ${state.sampleIndex}: sum of |products| + 2^(F-1) = ${bound} > 2^63 - 1`);
+    }
+    const acc = terms.reduce((s, t) => s + t, 0n) + BigInt(rc);
+    y = saturateToWord(acc >> BigInt(f), fixed.wordBits);
+  }
+  state.x2 = state.x1;
+  state.x1 = input;
+  state.y2 = state.y1;
+  state.y1 = y;
+  state.sampleIndex += 1;
+  return y;
+}
+
+/**
+ * Bit-exact Direct Form I run of one section from the reset state (CONTRACT section 3; rules in
+ * {@link FIXED_ARITHMETIC}).
+ *
+ * @param fixed - quantized coefficients.
+ * @param input - W-bit integer input samples within +-(2^(W-1) - 1) (input LSB).
+ * @returns the W-bit integer outputs, one per input (output LSB).
+ * @throws FixedArithmeticError / AccumulatorOverflowError as {@link stepFixedSection}.
+ * @example
+ * runFixedSection({ wordBits: 16, fracBits: 14, b: [8192, 8192, 0], a: [16384, 0, 0], qFormat: 'Q2.14' }, [100, 100, 3]);
+ * // => [50, 100, 52]
+ */
+export function runFixedSection(fixed: FixedCoefficients, input: readonly number[]): number[] {
+  const state = createFixedSectionState(fixed);
+  return input.map((x) => stepFixedSection(state, x));
+}
+
+/** State of a block of parallel sections. */
+export interface FixedBlockState {
+  /** W of the block output. */
+  readonly wordBits: number;
+  /** One state per section, in section order. */
+  readonly sections: FixedSectionState[];
+}
+
+/**
+ * Creates the reset state of a block of parallel sections.
+ *
+ * @param sections - quantized sections, all with the same W.
+ * @param wordBits - W of the block (must equal every section's W).
+ * @returns the block state.
+ * @throws FixedArithmeticError when a section's W differs or the block has no section.
+ * @example
+ * const block = createFixedBlockState([fixedKp, fixedH1], 32);
+ */
+export function createFixedBlockState(sections: readonly FixedCoefficients[], wordBits: number): FixedBlockState {
+  if (sections.length === 0) throw new FixedArithmeticError('invalid-coefficients', 'a block needs at least one section');
+  sections.forEach((s, i) => {
+    if (s.wordBits !== wordBits) throw new FixedArithmeticError('invalid-coefficients', `section ${i} has wordBits ${s.wordBits}, the block ${wordBits}`);
+  });
+  return { wordBits, sections: sections.map(createFixedSectionState) };
+}
+
+/**
+ * Resets every section of a block.
+ *
+ * @param state - block state (mutated).
+ * @returns nothing.
+ * @example
+ * resetFixedBlockState(block);
+ */
+export function resetFixedBlockState(state: FixedBlockState): void {
+  state.sections.forEach(resetFixedSectionState);
+}
+
+/**
+ * One sample of a block: every section steps on the same input; output = sat_W(sum of section outputs).
+ *
+ * @param state - block state (mutated).
+ * @param input - x[n], W-bit integer (input LSB).
+ * @returns the saturated block output (output LSB).
+ * @example
+ * stepFixedBlock(block, 1000);
+ */
+export function stepFixedBlock(state: FixedBlockState, input: number): number {
+  let sum = 0;
+  for (const section of state.sections) sum += stepFixedSection(section, input);
+  return saturateToWord(sum, state.wordBits);
+}
+
+/**
+ * Bit-exact run of a block of parallel sections from the reset state:
+ * output[n] = sat_W(sum over sections of their saturated outputs).
+ *
+ * @param sections - quantized sections of the block (same W).
+ * @param input - W-bit integer input samples (input LSB).
+ * @param wordBits - W.
+ * @returns W-bit integer outputs (output LSB).
+ * @example
+ * runFixedBlock([{ wordBits: 16, fracBits: 14, b: [16384, 0, 0], a: [16384, 0, 0], qFormat: 'Q2.14' }], [5, -7], 16); // => [5, -7]
  */
 export function runFixedBlock(sections: readonly FixedCoefficients[], input: readonly number[], wordBits: number): number[] {
-  void sections; void input; void wordBits;
-  throw new Error('runFixedBlock: not implemented');
+  const state = createFixedBlockState(sections, wordBits);
+  return input.map((x) => stepFixedBlock(state, x));
 }
