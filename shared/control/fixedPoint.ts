@@ -1,42 +1,394 @@
 import type { BlockResult, Check, FixedCoefficients, FixedSectionAnalysis, SectionKind } from './types';
-
-// PLACEHOLDER SIGNATURES — to be implemented by the fixed-point work (Core-B). Keep the names.
+import { resonanceHzFromDenominator } from './resonance';
+import { scaleByPowerOfTwo } from './quantize';
 
 /** What fixed-point analysis needs to know about a section. */
 export interface SectionForFixedAnalysis {
+  /** `proportional`, `resonant-h<h>`, `pi`, `band-pass`, `low-pass`. */
   role: string;
   kind: SectionKind;
+  /** Double-precision numerator in powers of z^-1, three entries. */
   b: readonly number[];
+  /** Double-precision denominator in powers of z^-1, three entries, a[0] = 1. */
   a: readonly number[];
+  /** Prewarp (design) frequency in Hz, null when not prewarped. */
   prewarpHz: number | null;
 }
 
+/** Iteration cap of the impulse-response sums (beyond it a geometric tail estimate is added). */
+const MAX_IMPULSE_SAMPLES = 10_000_000;
+
 /**
- * Fixed-point properties of one quantized section (placeholder).
+ * Largest pole radius of a section with denominator [1, a1, a2] (powers of z^-1), i.e. of the
+ * roots of z^2 + a1 z + a2.
+ *
+ * Method: complex pair (a1^2 < 4 a2): |z| = sqrt(a2); real roots by the cancellation-free
+ * quadratic formula q = -(a1 + sign(a1) sqrt(a1^2 - 4 a2)) / 2, roots q and a2 / q.
+ *
+ * @param a - denominator [1, a1, a2] (dimensionless); missing entries are 0.
+ * @returns the largest root magnitude (0 for a pure gain).
+ * @example
+ * maxPoleRadius([1, -1.999753264963321, 1]); // => 1 (ideal resonator)
+ * maxPoleRadius([1, -0.5, 0]); // => 0.5
+ */
+export function maxPoleRadius(a: readonly number[]): number {
+  const a0 = a[0] ?? 1;
+  const a1 = (a[1] ?? 0) / a0;
+  const a2 = (a[2] ?? 0) / a0;
+  if (a2 === 0) return Math.abs(a1);
+  const disc = a1 * a1 - 4 * a2;
+  if (disc < 0) return Math.sqrt(a2);
+  const q = -(a1 + (a1 >= 0 ? 1 : -1) * Math.sqrt(disc)) / 2;
+  return Math.max(Math.abs(q), Math.abs(a2 / q));
+}
+
+/**
+ * l1 norm sum |h[n]| of the impulse response of B(z)/A(z) (powers of z^-1, a[0] = 1), the
+ * worst-case peak output for a unit-peak input (Oppenheim & Schafer, "Discrete-Time Signal
+ * Processing", scaling for overflow by the l1 norm).
+ *
+ * Method: runs the recursion h[n] = b_n - a1 h[n-1] - a2 h[n-2] in binary64 until the pole
+ * envelope r^n has decayed below 1e-13 (twice that horizon, for repeated poles); past 10^7 samples
+ * a geometric tail max|h| r / (1 - r) over the last samples is added as an estimate.
+ *
+ * @param b - numerator, up to three entries.
+ * @param a - denominator [1, a1, a2].
+ * @returns the norm (dimensionless), or null when a pole lies on or outside the unit circle (unbounded).
+ * @example
+ * impulseResponseL1Norm([0.5], [1, -0.5, 0]); // => 1 (0.5 * sum 0.5^n)
+ */
+export function impulseResponseL1Norm(b: readonly number[], a: readonly number[]): number | null {
+  const b0 = b[0] ?? 0;
+  const b1 = b[1] ?? 0;
+  const b2 = b[2] ?? 0;
+  const a1 = a[1] ?? 0;
+  const a2 = a[2] ?? 0;
+  if (a1 === 0 && a2 === 0) return Math.abs(b0) + Math.abs(b1) + Math.abs(b2);
+  const radius = maxPoleRadius([1, a1, a2]);
+  if (!(radius < 1)) return null;
+  const horizon = radius === 0 ? 3 : 2 * Math.ceil(Math.log(1e-13) / Math.log(radius)) + 10;
+  const samples = Math.min(horizon, MAX_IMPULSE_SAMPLES);
+  let h1 = 0;
+  let h2 = 0;
+  let sum = 0;
+  let tailMax = 0;
+  for (let n = 0; n < samples; n += 1) {
+    const input = n === 0 ? b0 : n === 1 ? b1 : n === 2 ? b2 : 0;
+    const h = input - a1 * h1 - a2 * h2;
+    sum += Math.abs(h);
+    if (samples - n <= 100_000) tailMax = Math.max(tailMax, Math.abs(h));
+    h2 = h1;
+    h1 = h;
+  }
+  if (samples < horizon) sum += (tailMax * radius) / (1 - radius);
+  return sum;
+}
+
+/**
+ * Resonance of a quantized section: acos(-a1 / (1 + a2)) / (2 pi Ts) with a_i = aq_i / 2^F
+ * (CONTRACT section 3, `resonanceHz.fixed`).
+ *
+ * @param fixed - quantized coefficients.
+ * @param samplePeriodS - Ts in seconds.
+ * @returns the centre frequency in Hz, or null when the quantized poles are real (no resonance).
+ * @example
+ * quantizedResonanceHz({ wordBits: 16, fracBits: 14, b: [0, 0, 0], a: [16384, -32764, 16384], qFormat: 'Q2.14' }, 5e-5);
+ * // => 49.7359... (the 50 Hz resonator at 20 kHz in Q14)
+ */
+export function quantizedResonanceHz(fixed: FixedCoefficients, samplePeriodS: number): number | null {
+  const a = fixed.a.map((c) => scaleByPowerOfTwo(c, -fixed.fracBits));
+  return resonanceHzFromDenominator([1, a[1] / a[0], a[2] / a[0]], samplePeriodS);
+}
+
+/**
+ * Fixed-point properties of one quantized section (DF-I reference arithmetic, see FIXED_ARITHMETIC).
+ *
+ * - `dcGain`: H(1) = sum(b) / sum(a) from the double and from the integer coefficients (the 2^F
+ *   cancels); null where sum(a) = 0 (pole at z = 1: PI integrators, a low-pass whose
+ *   quantized poles reached z = 1).
+ * - `maxPoleRadiusFixed`: largest |root| of aq0 z^2 + aq1 z + aq2.
+ * - `outputL1Norm`: l1 norm of the quantized section's impulse response (worst-case output for
+ *   a unit-peak input; Oppenheim & Schafer, scaling); null when a pole is on or outside the unit
+ *   circle — ideal resonators (a2 = 1, marginally stable) and PI integrators, whose states need
+ *   saturation and anti-windup.
+ * - `headroomBits`: max(0, ceil(log2(l1))) integer bits the output needs beyond the W-bit word
+ *   for a full-scale input; null when unbounded.
+ * - `deadbandLsb`, recursive sections other than PI: 0.5 * l1 norm of 1/Aq(z), in output LSB.
+ *   The DF-I output y = v + e carries one rounding error |e| <= 0.5 LSB per sample and e reaches
+ *   the output through 1/A(z), so the output can sit up to that far off the exact-arithmetic
+ *   response (Jackson, "On the interaction of roundoff noise and dynamic range in digital
+ *   filters", BSTJ 1970; Oppenheim & Schafer, roundoff in recursive structures). For a first-order
+ *   section with pole p this is 0.5 / (1 - p), the classic rounding dead band; for a second-order
+ *   section with real positive poles it equals the DC stall 0.5 / (1 + a1 + a2).
+ *   For `pi` sections it is the integrator dead band in INPUT LSB: with a1 = -1 exactly, the
+ *   integrator moves by round(N x / 2^F) per sample for a constant input x, N = bq0 + bq1, so input
+ *   errors below 2^(F-1) / N LSB are never integrated. Null for non-recursive sections, unbounded
+ *   error feedback (a pole of Aq on the unit circle) or a lost integral (N <= 0); `notes` says which.
+ * - `lostCoefficients`: `b0`..`a2` whose double is non-zero and whose integer is 0.
+ *
  * @param section - the double-precision section.
  * @param fixed - its quantized coefficients.
- * @param samplePeriodS - Ts in seconds.
+ * @param samplePeriodS - Ts in seconds (> 0).
  * @returns the analysis.
+ * @example
+ * analyzeFixedSection({ role: 'low-pass', kind: 'low-pass', b: [0.0015683, 0.0015683, 0], a: [1, -0.9968633, 0], prewarpHz: 10 },
+ *   quantizeSection([0.0015683, 0.0015683, 0], [1, -0.9968633, 0], 16), 5e-5).deadbandLsb; // => about 160
  */
 export function analyzeFixedSection(section: SectionForFixedAnalysis, fixed: FixedCoefficients, samplePeriodS: number): FixedSectionAnalysis {
-  void section; void fixed; void samplePeriodS;
-  throw new Error('analyzeFixedSection: not implemented');
+  if (!(samplePeriodS > 0) || !Number.isFinite(samplePeriodS)) throw new RangeError(`samplePeriodS must be positive and finite, got ${samplePeriodS}`);
+  const notes: string[] = [];
+  const bq = fixed.b.map((c) => scaleByPowerOfTwo(c, -fixed.fracBits));
+  const aqRaw = fixed.a.map((c) => scaleByPowerOfTwo(c, -fixed.fracBits));
+  const aq = [1, aqRaw[1] / aqRaw[0], aqRaw[2] / aqRaw[0]];
+  const bqNorm = bq.map((c) => c / aqRaw[0]);
+
+  const sum = (v: readonly number[]): number => v.reduce((s, c) => s + c, 0);
+  const sumADouble = sum(section.a);
+  const sumAInt = sum(fixed.a);
+  const dcGain = {
+    discrete: sumADouble === 0 ? null : sum(section.b) / sumADouble,
+    fixed: sumAInt === 0 ? null : sum(fixed.b) / sumAInt,
+  };
+
+  const maxPoleRadiusFixed = maxPoleRadius(aq);
+  const outputL1Norm = impulseResponseL1Norm(bqNorm, aq);
+  if (outputL1Norm === null) notes.push('outputL1Norm: a quantized pole lies on or outside the unit circle, the state is unbounded: saturate it and add anti-windup');
+  const headroomBits = outputL1Norm === null ? null : outputL1Norm <= 1 ? 0 : Math.ceil(Math.log2(outputL1Norm));
+
+  const recursive = fixed.a[1] !== 0 || fixed.a[2] !== 0;
+  let deadbandLsb: number | null = null;
+  if (!recursive) {
+    notes.push('deadbandLsb: not recursive, the output error is at most 0.5 LSB');
+  } else if (section.kind === 'pi') {
+    const integral = fixed.b[0] + fixed.b[1];
+    if (integral > 0) deadbandLsb = 2 ** (fixed.fracBits - 1) / integral;
+    else notes.push('deadbandLsb: bq0 + bq1 <= 0, the integral action is lost');
+  } else {
+    const errorNorm = impulseResponseL1Norm([1], aq);
+    if (errorNorm === null) notes.push('deadbandLsb: rounding errors are fed back through a pole on the unit circle and accumulate without bound');
+    else deadbandLsb = 0.5 * errorNorm;
+  }
+
+  const names = ['b0', 'b1', 'b2', 'a0', 'a1', 'a2'];
+  const doubles = [...padded(section.b), ...padded(section.a)];
+  const integers = [...fixed.b, ...fixed.a];
+  const lostCoefficients = names.filter((_, i) => doubles[i] !== 0 && integers[i] === 0);
+
+  return { dcGain, maxPoleRadiusFixed, outputL1Norm, headroomBits, deadbandLsb, lostCoefficients, notes };
 }
 
 /** Context of the fixed-point checks. */
 export interface FixedPointCheckContext {
+  /** Ts in seconds. */
   samplePeriodS: number;
+  /** Word length W of the design (16 or 32). */
   wordBits: number;
+  /** Grid frequency in Hz. */
   gridFrequencyHz: number;
 }
 
 /**
- * Fixed-point checks over all blocks (placeholder).
- * @param blocks - blocks whose sections carry `fixed`, `resonanceHz` and `fixedAnalysis`.
- * @param context - sampling and word length.
- * @returns the checks.
+ * Drift limit of a damped resonator, as a fraction of its half-bandwidth. A band-pass resonance off
+ * by Delta loses gain 1 / sqrt(1 + (Delta / fb)^2) and gains phase atan(Delta / fb) at the design
+ * frequency (second-order band-pass, Teodorescu et al., IEE Proc. EPA 2006, PR gain at the
+ * resonance); 0.1 keeps the gain within 0.5 % and the phase within 5.7 degrees. A drift of the
+ * order of fb loses the zero-steady-state-error property (Harnefors, IEEE TIE 2009; Yepes et al.,
+ * IEEE TPEL 2010).
+ */
+export const RESONATOR_DRIFT_FRACTION_OF_HALF_BANDWIDTH = 0.1;
+
+/**
+ * Drift limit in Hz of an ideal resonator (no bandwidth to absorb a drift): 0.01 Hz, the accuracy
+ * that needs 23/25/27-bit words at 10/20/40 kHz for 50 Hz (Harnefors, IEEE TIE 2009, coefficient
+ * sensitivity near z = 1).
+ */
+export const IDEAL_RESONATOR_DRIFT_LIMIT_HZ = 0.01;
+
+/**
+ * SOGI drift limit as tan(1 degree) times the SOGI half-bandwidth k f0 / 2: the band-pass output's
+ * phase at the grid frequency moves by atan(Delta / fb), and the PLL locks onto that phase
+ * (Ciobotaru, Teodorescu, Blaabjerg, PESC 2006). One degree of angle error is the limit chosen here
+ * (engineering limit, no source).
+ */
+export const SOGI_DRIFT_FRACTION_OF_HALF_BANDWIDTH = Math.tan(Math.PI / 180);
+
+/** Relative DC-gain error of a quantized low-pass beyond which a warning is raised (1 %, common practice, no source). */
+export const LOW_PASS_DC_GAIN_TOLERANCE = 0.01;
+
+/** Relative error of the quantized integral gain bq0 + bq1 beyond which a warning is raised (1 %, common practice, no source). */
+export const INTEGRAL_GAIN_TOLERANCE = 0.01;
+
+/** Dead band, as a fraction of full scale, beyond which a warning is raised (0.1 %, common practice, no source). */
+export const DEADBAND_FRACTION_OF_FULL_SCALE = 0.001;
+
+/**
+ * Half-bandwidth in Hz of a resonant section from its double pole radius: poles r e^{+-j theta}
+ * with r^2 = a2 come from s = -sigma +- j omega with r = e^{-sigma Ts} (pole mapping, exact for
+ * impulse invariance; prewarped Tustin scales sigma by about 1 - (omega0 Ts)^2 / 12, 2e-5 relative
+ * for 50 Hz at 20 kHz), and the -3 dB half-bandwidth of the band-pass is sigma.
+ *
+ * @param a - denominator [1, a1, a2] of the double section.
+ * @param samplePeriodS - Ts in seconds.
+ * @returns half-bandwidth in Hz (0 for an ideal resonator, a2 = 1).
+ * @example
+ * resonatorHalfBandwidthHz([1, -1.999253472149031, 0.999500145519904], 5e-5); // => 0.7957 (5 rad/s)
+ */
+export function resonatorHalfBandwidthHz(a: readonly number[], samplePeriodS: number): number {
+  const a2 = a[2] ?? 0;
+  if (!(a2 > 0) || a2 >= 1) return 0;
+  return -Math.log(a2) / (4 * Math.PI * samplePeriodS);
+}
+
+/**
+ * Fixed-point checks over all blocks. Ids are `<prefix>-<finding>`, prefix = the block id, or
+ * `<block id>-<role>` for blocks with several sections; the resonance drifts use
+ * `pr-h<h>-quantization-drift` and `sogi-quantization-drift` (worst SOGI section).
+ *
+ * - resonance drift |fixed - design| (resonators, SOGI): `error` above the limit (damped resonator:
+ *   0.1 x half-bandwidth; ideal: 0.01 Hz; SOGI: tan(1 deg) x half-bandwidth), `info` otherwise.
+ * - a low-pass whose integers give aq0 + aq1 + aq2 <= 0 (pole at or past z = 1): `error`.
+ * - any other section whose quantized poles reach the unit circle while the double ones do not: `error`.
+ * - lost coefficient (non-zero double, zero integer): `error`.
+ * - PI: integral gain bq0 + bq1 zero or of the wrong sign: `error`; off by more than 1 %: `warning`;
+ *   integrator dead band (input errors never integrated) above 0.1 % of full scale: `warning`.
+ * - low-pass / SOGI low-pass DC gain off by more than 1 %: `warning`.
+ * - output dead band above 0.1 % of full scale: `warning`.
+ * - F < 0 (coefficients beyond the word even without fraction bits): `error`.
+ * - unbounded state (ideal resonators, integrators): `info` (saturate states, anti-windup);
+ *   output needing more bits than the word for a full-scale input: `info`.
+ *
+ * @param blocks - blocks whose sections carry `fixed`, and optionally `resonanceHz` and `fixedAnalysis`
+ *   (computed here when absent).
+ * @param context - sampling period, word length and grid frequency.
+ * @returns the checks, in block and section order.
+ * @example
+ * fixedPointChecks(analysis.blocks, { samplePeriodS: 5e-5, wordBits: 16, gridFrequencyHz: 50 })
+ *   .find((c) => c.id === 'pr-h1-quantization-drift'); // => { severity: 'error', value: 0.264, limit: 0.05, unit: 'Hz', ... }
  */
 export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedPointCheckContext): Check[] {
-  void blocks; void context;
-  throw new Error('fixedPointChecks: not implemented');
+  const checks: Check[] = [];
+  const ts = context.samplePeriodS;
+  const fullScale = 2 ** (context.wordBits - 1) - 1;
+  const wordRemedy = context.wordBits < 32 ? 'use a 32-bit word (fixedPoint.wordBits = 32)' : null;
+  const join = (parts: (string | null)[]): string => {
+    const list = parts.filter((p): p is string => p !== null);
+    const text = list.join(', or ');
+    return text.charAt(0).toUpperCase() + text.slice(1) + '.';
+  };
+  let worstSogi: { check: Check; excess: number } | null = null;
+
+  for (const block of blocks) {
+    for (const section of block.sections) {
+      const fixed = section.fixed;
+      const prefix = block.sections.length > 1 ? `${block.id}-${section.role}` : block.id;
+      const where = block.sections.length > 1 ? `${block.id} ${section.role}` : block.id;
+      const make = (id: string, severity: Check['severity'], message: string, value: number | null, limit: number | null, unit: string | null, remedy: string | null): Check => ({
+        id, severity, message, value: finiteOrNull(value), limit: finiteOrNull(limit), unit, blockId: block.id, remedy,
+      });
+
+      if (fixed.fracBits < 0) {
+        checks.push(make(`${prefix}-coefficient-range`, 'error', `${where}: coefficients exceed the ${fixed.wordBits}-bit word even with no fraction bits (F = ${fixed.fracBits}); the reference arithmetic cannot run it.`, fixed.fracBits, 0, 'bit', join([wordRemedy, 'scale the block input or output so its gains fall below 2^(W-2)'])));
+        continue;
+      }
+      const fa = section.fixedAnalysis ?? analyzeFixedSection(section, fixed, ts);
+
+      if (fa.lostCoefficients.length > 0) {
+        checks.push(make(`${prefix}-lost-coefficient`, 'error', `${where}: ${fa.lostCoefficients.join(', ')} quantize to zero in ${fixed.qFormat}; the section no longer does what it was designed for.`, fa.lostCoefficients.length, 0, 'coefficients', join([wordRemedy, 'give the small coefficients their own scaling (a separate shift for the numerator)', 'a lower sampling rate for this block'])));
+      }
+
+      if (section.kind === 'resonator' || section.kind === 'sogi-band-pass' || section.kind === 'sogi-low-pass') {
+        const designHz = section.resonanceHz?.design ?? section.prewarpHz;
+        const fixedHz = section.resonanceHz ? section.resonanceHz.fixed : quantizedResonanceHz(fixed, ts);
+        const halfBandwidthHz = resonatorHalfBandwidthHz(section.a, ts);
+        const isSogi = section.kind !== 'resonator';
+        const limitHz = isSogi ? SOGI_DRIFT_FRACTION_OF_HALF_BANDWIDTH * halfBandwidthHz : halfBandwidthHz > 0 ? RESONATOR_DRIFT_FRACTION_OF_HALF_BANDWIDTH * halfBandwidthHz : IDEAL_RESONATOR_DRIFT_LIMIT_HZ;
+        const harmonic = /^resonant-h(\d+)$/.exec(section.role)?.[1];
+        const id = isSogi ? 'sogi-quantization-drift' : harmonic ? `pr-h${harmonic}-quantization-drift` : `${prefix}-quantization-drift`;
+        const remedy = join([wordRemedy, 'store 2 + a1 and 1 - a2 separately with their own scaling (split feedback)', 'a lower sampling rate for this block', isSogi ? 'a larger SOGI gain (wider band-pass)' : 'a wider resonator (larger resonantBandwidthHz)']);
+        let check: Check;
+        if (designHz === null || designHz === undefined) {
+          check = make(id, 'error', `${where}: no design frequency known for this resonant section.`, null, limitHz, 'Hz', remedy);
+        } else if (fixedHz === null) {
+          check = make(id, 'error', `${where}: the quantized poles in ${fixed.qFormat} are real, the section no longer resonates at ${fmt(designHz)} Hz.`, null, limitHz, 'Hz', remedy);
+        } else {
+          const drift = Math.abs(fixedHz - designHz);
+          const bad = drift > limitHz;
+          const basis = isSogi ? 'tan(1 deg) x the SOGI half-bandwidth' : halfBandwidthHz > 0 ? '0.1 x the resonator half-bandwidth' : 'the ideal-resonator limit';
+          check = make(id, bad ? 'error' : 'info', bad
+            ? `${where}: in ${fixed.qFormat} the resonance lands at ${fmt(fixedHz)} Hz instead of ${fmt(designHz)} Hz (drift ${fmt(drift)} Hz > ${fmt(limitHz)} Hz, ${basis}); the controller loses its gain at the design frequency.`
+            : `${where}: quantized resonance ${fmt(fixedHz)} Hz, drift ${fmt(drift)} Hz within ${fmt(limitHz)} Hz (${basis}).`,
+          drift, limitHz, 'Hz', bad ? remedy : null);
+        }
+        if (isSogi) {
+          const excess = check.value === null ? Infinity : check.value - (check.limit ?? 0);
+          if (worstSogi === null || excess > worstSogi.excess) worstSogi = { check, excess };
+        } else {
+          checks.push(check);
+        }
+      }
+
+      const sumInt = fixed.a[0] + fixed.a[1] + fixed.a[2];
+      const doubleRadius = maxPoleRadius(section.a);
+      if (section.kind === 'low-pass' && sumInt <= 0) {
+        checks.push(make(`${prefix}-pole-at-one`, 'error', `${where}: 1 + a1 + a2 quantizes to ${sumInt} LSB of ${fixed.qFormat}; a pole sits at or beyond z = 1 and the low-pass becomes an integrator.`, sumInt, 1, 'LSB', join([wordRemedy, 'store 1 + a1 + a2 (or 2 + a1 and 1 - a2) separately with their own scaling', 'a lower sampling rate for this block', 'a higher cutoff frequency'])));
+      } else if (fa.maxPoleRadiusFixed >= 1 && doubleRadius < 1) {
+        checks.push(make(`${prefix}-quantized-unstable`, 'error', `${where}: the quantized poles have radius ${fmt(fa.maxPoleRadiusFixed)} (double ${fmt(doubleRadius)}); the section is no longer stable in ${fixed.qFormat}.`, fa.maxPoleRadiusFixed, 1, null, join([wordRemedy, 'store 2 + a1 and 1 - a2 separately with their own scaling', 'a lower sampling rate for this block'])));
+      }
+
+      if (section.kind === 'pi') {
+        const intended = scaleByPowerOfTwo((section.b[0] ?? 0) + (section.b[1] ?? 0), fixed.fracBits);
+        const integral = fixed.b[0] + fixed.b[1];
+        const remedy = join([wordRemedy, 'give the integral gain its own scaling (a separate integrator with its own shift)', 'a lower sampling rate for this block']);
+        if (intended !== 0) {
+          if (integral === 0 || Math.sign(integral) !== Math.sign(intended)) {
+            checks.push(make(`${prefix}-integral-lost`, 'error', `${where}: the integral gain ki*Ts = b0 + b1 (${fmt(intended)} LSB) quantizes to ${integral} LSB in ${fixed.qFormat}; the integral action is lost.`, integral, 1, 'LSB', remedy));
+          } else {
+            const relative = Math.abs(integral - intended) / Math.abs(intended);
+            if (relative > INTEGRAL_GAIN_TOLERANCE) {
+              checks.push(make(`${prefix}-integral-gain-error`, 'warning', `${where}: the integral gain quantizes to ${integral} LSB instead of ${fmt(intended)} (${fmt(100 * relative)} % off).`, 100 * relative, 100 * INTEGRAL_GAIN_TOLERANCE, '%', remedy));
+            }
+            const integralLimit = DEADBAND_FRACTION_OF_FULL_SCALE * fullScale;
+            if (fa.deadbandLsb !== null && fa.deadbandLsb > integralLimit) {
+              checks.push(make(`${prefix}-integral-deadband`, 'warning', `${where}: input errors below ${fmt(fa.deadbandLsb)} LSB (${fmt((100 * fa.deadbandLsb) / fullScale)} % of full scale) are never integrated: the integrator increment round(ki*Ts*x) stays 0.`, fa.deadbandLsb, integralLimit, 'LSB', join(['keep the integrator in its own state with extra fraction bits (the output word is the state in Direct Form I)', wordRemedy, 'a lower sampling rate for this block'])));
+            }
+          }
+        }
+      }
+
+      if ((section.kind === 'low-pass' || section.kind === 'sogi-low-pass') && fa.dcGain.discrete !== null && fa.dcGain.fixed !== null && fa.dcGain.discrete !== 0) {
+        const relative = Math.abs(fa.dcGain.fixed - fa.dcGain.discrete) / Math.abs(fa.dcGain.discrete);
+        if (relative > LOW_PASS_DC_GAIN_TOLERANCE) {
+          checks.push(make(`${prefix}-dc-gain-error`, 'warning', `${where}: the quantized DC gain is ${fmt(fa.dcGain.fixed)} instead of ${fmt(fa.dcGain.discrete)} (${fmt(100 * relative)} % off).`, 100 * relative, 100 * LOW_PASS_DC_GAIN_TOLERANCE, '%', join([wordRemedy, 'store 1 + a1 + a2 separately with its own scaling', 'a lower sampling rate for this block'])));
+        }
+      }
+
+      const deadbandLimit = DEADBAND_FRACTION_OF_FULL_SCALE * fullScale;
+      if (section.kind !== 'pi' && fa.deadbandLsb !== null && fa.deadbandLsb > deadbandLimit) {
+        checks.push(make(`${prefix}-deadband`, 'warning', `${where}: rounding can hold the output up to ${fmt(fa.deadbandLsb)} LSB (${fmt((100 * fa.deadbandLsb) / fullScale)} % of full scale) off its exact value.`, fa.deadbandLsb, deadbandLimit, 'LSB', join([wordRemedy, 'error feedback (keep the rounding remainder for the next sample)', 'a lower sampling rate for this block'])));
+      }
+
+      if (fa.outputL1Norm === null && section.kind !== 'low-pass' && !(fa.maxPoleRadiusFixed >= 1 && doubleRadius < 1)) {
+        checks.push(make(`${prefix}-unbounded-state`, 'info', `${where}: a pole on the unit circle (${section.kind === 'pi' ? 'integrator' : 'ideal resonator'}) makes the state unbounded for a sustained input; saturate the states and add anti-windup.`, null, null, null, 'Saturate the section state and add anti-windup.'));
+      } else if (fa.headroomBits !== null && fa.headroomBits > 0) {
+        checks.push(make(`${prefix}-headroom`, 'info', `${where}: a full-scale input can drive the output ${fa.headroomBits} bit(s) past the word (l1 norm ${fmt(fa.outputL1Norm ?? 0)}); the output saturates.`, fa.headroomBits, 0, 'bit', null));
+      }
+    }
+  }
+  if (worstSogi !== null) checks.push(worstSogi.check);
+  return checks;
+}
+
+function padded(v: readonly number[]): number[] {
+  return [0, 1, 2].map((i) => v[i] ?? 0);
+}
+
+function finiteOrNull(v: number | null): number | null {
+  return v !== null && Number.isFinite(v) ? v : null;
+}
+
+function fmt(v: number): string {
+  if (v === 0) return '0';
+  const magnitude = Math.abs(v);
+  if (magnitude >= 1e6 || magnitude < 1e-3) return v.toExponential(3);
+  return Number(v.toPrecision(6)).toString();
 }
