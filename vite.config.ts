@@ -11,5 +11,6 @@ export default defineConfig({
   ],
   resolve: { alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) } },
   server: { port: 5173, proxy: { '/api': 'http://localhost:3000' } },
-  build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1200 },
+  build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1200, manifest: true },
+  worker: { format: 'es' },
 });

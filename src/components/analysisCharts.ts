@@ -1,0 +1,19 @@
+// ECharts, tree-shaken: only the charts, components and renderer the workspace plots use.
+// Imported only by the lazy plot components, so none of it is in the sign-in route.
+import { use } from 'echarts/core';
+import { LineChart, ScatterChart } from 'echarts/charts';
+import { GridComponent, LegendComponent, MarkLineComponent, MarkPointComponent, TitleComponent, TooltipComponent } from 'echarts/components';
+import { CanvasRenderer } from 'echarts/renderers';
+
+use([LineChart, ScatterChart, GridComponent, LegendComponent, MarkLineComponent, MarkPointComponent, TitleComponent, TooltipComponent, CanvasRenderer]);
+
+/** Series colours of the Varsmith palette. */
+export const PLOT_COLORS = ['#c27a4a', '#1e2a3a', '#3d78a8', '#2f8a5f', '#d08a10', '#8a4f9e'];
+
+/** Axis and text styling shared by all plots. */
+export const AXIS_STYLE = {
+  axisLine: { lineStyle: { color: '#6b6f76' } },
+  splitLine: { lineStyle: { color: '#e3ded6' } },
+  axisLabel: { color: '#3a3f46' },
+  nameTextStyle: { color: '#3a3f46' },
+} as const;

@@ -1,0 +1,86 @@
+// Units at the UI edge (STYLE habit 5): engineers type "0.6 mH", "4.7 µF", "20 kHz"; the design
+// stores SI. Conversions divide or multiply by exact powers of ten so decimal inputs round once.
+
+/** Physical dimension of a form quantity, with its SI base symbol. */
+export type Dimension = 'H' | 'F' | 'Hz' | 'V' | 'VA' | 'Ohm' | 's' | 'deg' | 'ratio' | 'count' | 'gain';
+
+/** Decimal prefixes accepted in typed units, as powers of ten. */
+const PREFIX_EXPONENT: Record<string, number> = { p: -12, n: -9, u: -6, 'µ': -6, 'μ': -6, m: -3, '': 0, k: 3, M: 6, G: 9 };
+
+/** Base symbols per dimension as typed (first is the displayed one). */
+const BASE_SYMBOLS: Record<Dimension, string[]> = {
+  H: ['H'],
+  F: ['F'],
+  Hz: ['Hz', 'hz', 'HZ'],
+  V: ['V', 'v'],
+  VA: ['VA', 'va'],
+  Ohm: ['Ω', 'ohm', 'Ohm', 'ohms', 'R'],
+  s: ['s'],
+  deg: ['°', 'deg'],
+  ratio: [''],
+  count: [''],
+  gain: [''],
+};
+
+/** A display unit: symbol shown beside the input and its power of ten relative to SI. */
+export interface DisplayUnit {
+  symbol: string;
+  exponent: number;
+}
+
+/**
+ * Multiplies a decimal number by 10^exponent with one rounding (division for negative exponents).
+ * @param value - the number.
+ * @param exponent - integer power of ten.
+ * @returns value * 10^exponent.
+ */
+export function scaleByPowerOfTen(value: number, exponent: number): number {
+  if (exponent === 0) return value;
+  return exponent > 0 ? value * 10 ** exponent : value / 10 ** -exponent;
+}
+
+/**
+ * Writes an SI value in a display unit, with up to 10 significant digits and no float noise.
+ * @param valueSi - the SI value (null = empty text).
+ * @param unit - the display unit.
+ * @returns the text for the input.
+ */
+export function formatInUnit(valueSi: number | null, unit: DisplayUnit): string {
+  if (valueSi === null || !Number.isFinite(valueSi)) return '';
+  const shown = scaleByPowerOfTen(valueSi, -unit.exponent);
+  return String(Number(shown.toPrecision(10)));
+}
+
+/** Result of reading a typed quantity. */
+export type ParsedQuantity = { ok: true; valueSi: number | null } | { ok: false; message: string };
+
+const NUMBER_AND_UNIT = /^([+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][+-]?\d+)?)\s*(\S*)$/;
+
+/**
+ * Reads a typed quantity such as `0.6 mH`, `600u`, `4.7 µF`, `20 kHz` or a bare number in the display unit.
+ * @param text - what the user typed (blank = null).
+ * @param dimension - what the field measures.
+ * @param unit - the display unit a bare number is in.
+ * @returns the SI value, or a message naming what is wrong.
+ */
+export function parseQuantity(text: string, dimension: Dimension, unit: DisplayUnit): ParsedQuantity {
+  const trimmed = text.trim();
+  if (trimmed === '') return { ok: true, valueSi: null };
+  const match = NUMBER_AND_UNIT.exec(trimmed);
+  if (!match) return { ok: false, message: `“${trimmed}” is not a number${unit.symbol ? ` in ${unit.symbol}` : ''}.` };
+  const number = Number(match[1].replace(',', '.'));
+  if (!Number.isFinite(number)) return { ok: false, message: `“${trimmed}” is too large.` };
+  const suffix = match[2];
+  if (suffix === '') return { ok: true, valueSi: scaleByPowerOfTen(number, unit.exponent) };
+  if (dimension === 'ratio' && suffix === '%') return { ok: true, valueSi: number / 100 };
+  for (const base of BASE_SYMBOLS[dimension]) {
+    if (base !== '' && suffix.endsWith(base)) {
+      const prefix = suffix.slice(0, suffix.length - base.length);
+      if (prefix in PREFIX_EXPONENT) return { ok: true, valueSi: scaleByPowerOfTen(number, PREFIX_EXPONENT[prefix]) };
+    }
+  }
+  // A bare prefix ("600u", "4.7µ", "20k") scales the SI base unit.
+  if (suffix in PREFIX_EXPONENT && BASE_SYMBOLS[dimension][0] !== '') return { ok: true, valueSi: scaleByPowerOfTen(number, PREFIX_EXPONENT[suffix]) };
+  const expected = BASE_SYMBOLS[dimension][0];
+  return { ok: false, message: expected ? `Unit “${suffix}” does not measure ${expected}; type e.g. ${unit.symbol || expected}.` : `“${trimmed}” takes no unit.` };
+}

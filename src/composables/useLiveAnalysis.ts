@@ -1,0 +1,114 @@
+// Live analysis while the user types: debounced, run in a Web Worker when the browser has one
+// (directly otherwise, e.g. in component tests), stale answers dropped.
+import { onBeforeUnmount, ref, watch, type Ref } from 'vue';
+import type { AnalysisOptions, AnalysisResult, DesignInput } from '../../shared/control';
+import type { AnalysisReply, AnalysisRequest } from '../workers/analysisProtocol';
+
+/** Plot resolution the workspace asks for. */
+export const LIVE_ANALYSIS_OPTIONS: AnalysisOptions = { sweepPoints: 400, responseSamples: 400 };
+
+/** Debounce between the last keystroke and the analysis. */
+export const LIVE_ANALYSIS_DEBOUNCE_MS = 150;
+
+/** Runs one request somewhere and answers it. */
+export type AnalysisRunner = (request: AnalysisRequest) => Promise<AnalysisReply>;
+
+function workerRunner(): { run: AnalysisRunner; dispose: () => void } | null {
+  if (typeof Worker === 'undefined') return null;
+  let worker: Worker;
+  try {
+    worker = new Worker(new URL('../workers/analysis.worker.ts', import.meta.url), { type: 'module' });
+  } catch {
+    return null;
+  }
+  const pending = new Map<number, (reply: AnalysisReply) => void>();
+  worker.onmessage = (event: MessageEvent<AnalysisReply>) => {
+    pending.get(event.data.id)?.(event.data);
+    pending.delete(event.data.id);
+  };
+  worker.onerror = (event) => {
+    for (const [id, resolve] of pending) resolve({ id, ok: false, message: event.message || 'The analysis worker failed.', elapsedMs: 0 });
+    pending.clear();
+  };
+  return {
+    run: (request) => new Promise((resolve) => { pending.set(request.id, resolve); worker.postMessage(request); }),
+    dispose: () => worker.terminate(),
+  };
+}
+
+/** Same computation on the main thread (the core is pure; loaded lazily to keep it out of the first chunk). */
+const directRunner: AnalysisRunner = async (request) => {
+  const { analyzeDesign } = await import('../../shared/control');
+  const started = performance.now();
+  try {
+    return { id: request.id, ok: true, result: analyzeDesign(request.design, request.options), elapsedMs: performance.now() - started };
+  } catch (cause) {
+    return { id: request.id, ok: false, message: cause instanceof Error ? cause.message : String(cause), elapsedMs: performance.now() - started };
+  }
+};
+
+/** Reactive live-analysis state. */
+export interface LiveAnalysis {
+  result: Ref<AnalysisResult | null>;
+  error: Ref<string | null>;
+  running: Ref<boolean>;
+  /** Compute time of the last answer in ms. */
+  elapsedMs: Ref<number | null>;
+  /** Whether `result` belongs to the design currently in the form. */
+  current: Ref<boolean>;
+}
+
+/**
+ * Analyses `design` whenever it changes (null = the form has errors: keep the last result, marked stale).
+ * @param design - the valid design of the form, or null.
+ * @param options - debounce and runner overrides (tests).
+ * @returns the live state.
+ */
+export function useLiveAnalysis(design: Ref<DesignInput | null>, options: { debounceMs?: number; runner?: AnalysisRunner } = {}): LiveAnalysis {
+  const result = ref<AnalysisResult | null>(null);
+  const error = ref<string | null>(null);
+  const running = ref(false);
+  const elapsedMs = ref<number | null>(null);
+  const current = ref(false);
+  const worker = options.runner ? null : workerRunner();
+  const run = options.runner ?? worker?.run ?? directRunner;
+  const debounceMs = options.debounceMs ?? LIVE_ANALYSIS_DEBOUNCE_MS;
+  let timer: ReturnType<typeof setTimeout> | null = null;
+  let lastId = 0;
+
+  async function start(value: DesignInput): Promise<void> {
+    lastId += 1;
+    const id = lastId;
+    running.value = true;
+    const reply = await run({ id, design: JSON.parse(JSON.stringify(value)) as DesignInput, options: LIVE_ANALYSIS_OPTIONS });
+    if (id !== lastId) return;
+    running.value = false;
+    elapsedMs.value = reply.elapsedMs;
+    if (reply.ok) {
+      result.value = reply.result;
+      error.value = null;
+      current.value = true;
+    } else {
+      error.value = reply.message;
+      current.value = false;
+    }
+  }
+
+  watch(design, (value) => {
+    if (timer) clearTimeout(timer);
+    current.value = false;
+    if (!value) {
+      lastId += 1;
+      running.value = false;
+      return;
+    }
+    timer = setTimeout(() => void start(value), debounceMs);
+  }, { immediate: true, deep: true });
+
+  onBeforeUnmount(() => {
+    if (timer) clearTimeout(timer);
+    worker?.dispose();
+  });
+
+  return { result, error, running, elapsedMs, current };
+}
