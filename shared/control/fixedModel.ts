@@ -114,9 +114,54 @@ export interface FixedSectionState {
   y2: number;
   /** Samples processed since creation or the last reset (used in error messages). */
   sampleIndex: number;
+  /** Precomputed 2^(W-1) - 1, 2^(F-1) (or 0) and 2^F of `fixed`. */
+  readonly signalMax: number;
+  readonly roundingConstant: number;
+  readonly divisor: number;
 }
 
 const INT64_MAX = (1n << 63n) - 1n;
+const TWO_POW_16 = 65536;
+const TWO_POW_53 = 2 ** 53;
+/** 2^63 (1 - 2^-49): a magnitude sum computed in binary64 (relative error below 2^-50) at or below this is surely <= 2^63 - 1. */
+const SURELY_WITHIN_INT64 = 2 ** 63 - 2 ** 14;
+
+/**
+ * floor((acc + rc) / 2^F) for acc = b0 x + b1 x1 + b2 x2 - a1 y1 - a2 y2, exactly, in binary64.
+ *
+ * @param fixed - validated coefficients (W <= 32).
+ * @param input - x[n].
+ * @param state - the delays.
+ * @param rc - rounding constant.
+ * @returns the shifted accumulator before saturation (exact when it is within +-2^53, otherwise beyond the word with the right sign).
+ */
+function splitShift(fixed: FixedCoefficients, input: number, state: FixedSectionState, rc: number): number {
+  const b = fixed.b;
+  const a = fixed.a;
+  let hi = 0;
+  let lo = rc;
+  let vh = Math.floor(input / TWO_POW_16);
+  hi += b[0] * vh;
+  lo += b[0] * (input - vh * TWO_POW_16);
+  vh = Math.floor(state.x1 / TWO_POW_16);
+  hi += b[1] * vh;
+  lo += b[1] * (state.x1 - vh * TWO_POW_16);
+  vh = Math.floor(state.x2 / TWO_POW_16);
+  hi += b[2] * vh;
+  lo += b[2] * (state.x2 - vh * TWO_POW_16);
+  vh = Math.floor(state.y1 / TWO_POW_16);
+  hi -= a[1] * vh;
+  lo -= a[1] * (state.y1 - vh * TWO_POW_16);
+  vh = Math.floor(state.y2 / TWO_POW_16);
+  hi -= a[2] * vh;
+  lo -= a[2] * (state.y2 - vh * TWO_POW_16);
+  const carry = Math.floor(lo / TWO_POW_16);
+  const rest = lo - carry * TWO_POW_16; // [0, 2^16)
+  const high = hi + carry; // acc + rc = high * 2^16 + rest
+  const f = fixed.fracBits;
+  if (f >= 16) return Math.floor(high / 2 ** (f - 16));
+  return high * 2 ** (16 - f) + Math.floor(rest / 2 ** f);
+}
 
 /**
  * Checks that a quantized section can run in the reference arithmetic.
@@ -195,7 +240,7 @@ export function safeInputMagnitude(fixed: FixedCoefficients): number {
  */
 export function createFixedSectionState(fixed: FixedCoefficients): FixedSectionState {
   validateFixedCoefficients(fixed);
-  return { fixed, x1: 0, x2: 0, y1: 0, y2: 0, sampleIndex: 0 };
+  return { fixed, x1: 0, x2: 0, y1: 0, y2: 0, sampleIndex: 0, signalMax: signalMax(fixed.wordBits), roundingConstant: roundingConstant(fixed.fracBits), divisor: 2 ** fixed.fracBits };
 }
 
 /**
@@ -227,22 +272,33 @@ export function resetFixedSectionState(state: FixedSectionState): void {
  * stepFixedSection(s, 1234); // => 1234 (unity gain)
  */
 export function stepFixedSection(state: FixedSectionState, input: number): number {
-  const { fixed } = state;
-  const max = signalMax(fixed.wordBits);
+  const fixed = state.fixed;
+  const max = state.signalMax;
   if (!Number.isInteger(input) || Math.abs(input) > max) {
     throw new FixedArithmeticError('invalid-input', `input sample ${state.sampleIndex} must be an integer within +-${max}, got ${input}`);
   }
-  const [b0, b1, b2] = fixed.b;
-  const [, a1, a2] = fixed.a;
+  const b0 = fixed.b[0];
+  const b1 = fixed.b[1];
+  const b2 = fixed.b[2];
+  const a1 = fixed.a[1];
+  const a2 = fixed.a[2];
   const f = fixed.fracBits;
-  const rc = roundingConstant(f);
+  const rc = state.roundingConstant;
   const magnitude = Math.abs(b0 * input) + Math.abs(b1 * state.x1) + Math.abs(b2 * state.x2) + Math.abs(a1 * state.y1) + Math.abs(a2 * state.y2) + rc;
   let y: number;
-  if (magnitude < 2 ** 53) {
+  if (magnitude < TWO_POW_53) {
     // Every product and partial sum is an exact integer in binary64; division by 2^F is exact and
     // Math.floor is the arithmetic shift.
     const acc = b0 * input + b1 * state.x1 + b2 * state.x2 - a1 * state.y1 - a2 * state.y2 + rc;
-    y = saturateToWord(Math.floor(acc / 2 ** f), fixed.wordBits);
+    const shifted = Math.floor(acc / state.divisor);
+    y = shifted > max ? max : shifted < -max ? -max : shifted;
+  } else if (magnitude <= SURELY_WITHIN_INT64) {
+    // Exact 64-bit evaluation with two binary64 halves (W <= 32, so |c|, |v| < 2^31): each signal
+    // v = vh * 2^16 + vl with vl in [0, 2^16), so acc = hi * 2^16 + lo with |hi| < 2^49, |lo| < 2^50,
+    // both exact. The rounded magnitude sum proves the accumulator bound here; only the sliver
+    // next to 2^63 (and beyond) goes to the exact BigInt check below.
+    const shifted = splitShift(fixed, input, state, rc);
+    y = shifted > max ? max : shifted < -max ? -max : shifted;
   } else {
     const terms = [BigInt(b0) * BigInt(input), BigInt(b1) * BigInt(state.x1), BigInt(b2) * BigInt(state.x2), -BigInt(a1) * BigInt(state.y1), -BigInt(a2) * BigInt(state.y2)];
     const bound = terms.reduce((s, t) => s + (t < 0n ? -t : t), 0n) + BigInt(rc);
@@ -327,7 +383,8 @@ export function resetFixedBlockState(state: FixedBlockState): void {
 export function stepFixedBlock(state: FixedBlockState, input: number): number {
   let sum = 0;
   for (const section of state.sections) sum += stepFixedSection(section, input);
-  return saturateToWord(sum, state.wordBits);
+  const max = state.sections[0].signalMax;
+  return sum > max ? max : sum < -max ? -max : sum;
 }
 
 /**
