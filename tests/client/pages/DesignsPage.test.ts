@@ -1,0 +1,94 @@
+// The designs list: rows with status, revision, release and owner; search; engineers create.
+import { describe, expect, it } from 'vitest';
+import { http, HttpResponse } from 'msw';
+import { server } from '../setup';
+import { mountApp, settle, waitFor } from '../mountApp';
+import { signInAs } from '../session';
+import { buildDesignDetail } from '../fixtures';
+
+const rows = [
+  buildDesignDetail({ id: 1, name: 'Bay 4 rig', latestRevision: { id: 10, number: 2, status: 'in-review' }, updatedAt: '2026-11-30T10:00:00Z' }),
+  buildDesignDetail({ id: 2, name: 'Harbour cabinet LCL', owner: { id: 5, name: 'Kit Firmware' }, latestRevision: { id: 12, number: 4, status: 'approved' }, latestRelease: { id: 3, version: '1.2.0' }, updatedAt: '2026-11-29T10:00:00Z' }),
+];
+
+function tableText(root: HTMLElement): string {
+  return root.querySelector('[data-test="designs-table"]')?.textContent ?? '';
+}
+
+describe('DesignsPage', () => {
+  it('lists designs with status, latest revision and release, owner', async () => {
+    signInAs('engineer');
+    server.use(http.get('*/api/designs', () => HttpResponse.json(rows)));
+    const { root } = await mountApp('/designs');
+    await waitFor(() => tableText(root).includes('Harbour cabinet LCL'));
+    const text = tableText(root);
+    expect(text).toContain('in-review');
+    expect(text).toContain('r2');
+    expect(text).toContain('released');
+    expect(text).toContain('1.2.0');
+    expect(text).toContain('Kit Firmware');
+    expect(root.querySelector('[data-test="new-design"]')).not.toBeNull();
+  });
+
+  it('filters by the search text', async () => {
+    signInAs('engineer');
+    server.use(http.get('*/api/designs', () => HttpResponse.json(rows)));
+    const { root } = await mountApp('/designs');
+    await waitFor(() => tableText(root).includes('Harbour'));
+    const input = root.querySelector<HTMLInputElement>('[data-test="design-search"] input, input[data-test="design-search"]')!;
+    input.value = 'kit';
+    input.dispatchEvent(new Event('input'));
+    await waitFor(() => !tableText(root).includes('Bay 4 rig'));
+    expect(tableText(root)).toContain('Harbour cabinet LCL');
+  });
+
+  it('shows the empty state, and no create button for a reviewer', async () => {
+    signInAs('reviewer');
+    server.use(http.get('*/api/designs', () => HttpResponse.json([])));
+    const { root } = await mountApp('/designs');
+    await waitFor(() => tableText(root).includes('No designs yet.'));
+    expect(root.querySelector('[data-test="new-design"]')).toBeNull();
+  });
+
+  it('shows the load error with a retry', async () => {
+    signInAs('admin');
+    let calls = 0;
+    server.use(http.get('*/api/designs', () => { calls += 1; return calls === 1 ? HttpResponse.json({ error: { code: 'internal', message: 'database busy' } }, { status: 503 }) : HttpResponse.json(rows); }));
+    const { root } = await mountApp('/designs');
+    await waitFor(() => (root.textContent ?? '').includes('database busy'));
+    const retry = [...root.querySelectorAll('button')].find((b) => b.textContent?.includes('Retry'))!;
+    retry.click();
+    await waitFor(() => tableText(root).includes('Harbour'));
+  });
+
+  it('creates a design and opens it in the workspace', async () => {
+    signInAs('engineer');
+    let created: { design: { name: string } } | null = null;
+    server.use(
+      http.get('*/api/designs', () => HttpResponse.json([])),
+      http.post('*/api/designs', async ({ request }) => {
+        created = (await request.json()) as typeof created;
+        return HttpResponse.json(buildDesignDetail({ id: 42, name: created!.design.name }), { status: 201 });
+      }),
+      http.get('*/api/designs/42', () => HttpResponse.json(buildDesignDetail({ id: 42, name: 'Pilot rack 2' }))),
+    );
+    const { root, router } = await mountApp('/designs');
+    await waitFor(() => root.querySelector('[data-test="new-design"]') !== null);
+    (root.querySelector('[data-test="new-design"]') as HTMLElement).click();
+    await waitFor(() => document.querySelector('[data-test="new-design-name"]') !== null);
+    const input = document.querySelector<HTMLInputElement>('[data-test="new-design-name"] input, input[data-test="new-design-name"]')!;
+    input.value = 'Pilot rack 2';
+    input.dispatchEvent(new Event('input'));
+    await settle();
+    (document.querySelector('[data-test="create-design"]') as HTMLElement).closest('form')!.dispatchEvent(new Event('submit'));
+    await waitFor(() => router.currentRoute.value.name === 'design-workspace');
+    expect(created!.design.name).toBe('Pilot rack 2');
+    expect(router.currentRoute.value.params.id).toBe('42');
+  });
+
+  it('refuses the designs list to a tester (sent to released sets)', async () => {
+    signInAs('tester');
+    const { router } = await mountApp('/designs');
+    await waitFor(() => router.currentRoute.value.name === 'releases');
+  });
+});
