@@ -91,7 +91,7 @@ export interface FixedCoefficients {
   b: number[];
   /** round-half-away-from-zero(a_i * 2^F), three entries (a[0] = 2^F when it fits). */
   a: number[];
-  /** Label such as `Q1.30` (integer bits including sign . fraction bits); negative integer bits allowed as `Q-3.34`. */
+  /** Label `Q<W-F>.<F>` such as `Q2.30` for W = 32, F = 30 (integer bits including sign . fraction bits); `Q-3.35` or `Q18.-2` in the extremes. */
   qFormat: string;
 }
 
@@ -125,7 +125,7 @@ export interface FixedSectionAnalysis {
   outputL1Norm: number | null;
   /** Integer bits the output/state needs beyond the signal word for a full-scale input; null = unbounded. */
   headroomBits: number | null;
-  /** Dead band: how many LSB the output can stall off its true value with round-to-nearest (null when not recursive). */
+  /** Dead band: how many LSB the output can stall off its true value with round-to-nearest (null when not recursive or unbounded); for `pi` sections the input error in LSB below which the integrator never moves. */
   deadbandLsb: number | null;
   /** Coefficients whose double value is non-zero but quantize to 0. */
   lostCoefficients: string[];
