@@ -29,26 +29,38 @@ export interface DisplayUnit {
 }
 
 /**
- * Multiplies a decimal number by 10^exponent with one rounding (division for negative exponents).
- * @param value - the number.
+ * Moves the decimal point of a decimal numeral by `exponent` places and reads it as a double:
+ * one correctly rounded decimal-to-binary conversion, so "0.6" in mH is exactly the double 0.0006.
+ * @param numeral - a decimal numeral such as `-12.5` or `4.7e-3`.
  * @param exponent - integer power of ten.
- * @returns value * 10^exponent.
+ * @returns the double nearest to numeral * 10^exponent.
  */
-export function scaleByPowerOfTen(value: number, exponent: number): number {
-  if (exponent === 0) return value;
-  return exponent > 0 ? value * 10 ** exponent : value / 10 ** -exponent;
+export function shiftDecimal(numeral: string, exponent: number): number {
+  const match = /^([+-]?[\d.]+)(?:[eE]([+-]?\d+))?$/.exec(numeral.trim());
+  if (!match) return Number.NaN;
+  return Number(`${match[1]}e${Number(match[2] ?? 0) + exponent}`);
 }
 
 /**
- * Writes an SI value in a display unit, with up to 10 significant digits and no float noise.
+ * Writes an SI value in a display unit: the shortest decimal of the double with its point moved,
+ * so the text reads back to exactly the same double (showing a design never changes it).
  * @param valueSi - the SI value (null = empty text).
  * @param unit - the display unit.
  * @returns the text for the input.
  */
 export function formatInUnit(valueSi: number | null, unit: DisplayUnit): string {
   if (valueSi === null || !Number.isFinite(valueSi)) return '';
-  const shown = scaleByPowerOfTen(valueSi, -unit.exponent);
-  return String(Number(shown.toPrecision(10)));
+  if (valueSi === 0) return '0';
+  const [mantissa, exp] = valueSi.toExponential().split('e');
+  const negative = mantissa.startsWith('-');
+  const digits = mantissa.replace('-', '').replace('.', '');
+  const n = Number(exp) - unit.exponent;
+  const sign = negative ? '-' : '';
+  if (n < -6 || n > 20) return `${sign}${digits[0]}${digits.length > 1 ? `.${digits.slice(1)}` : ''}e${n}`;
+  if (n < 0) return `${sign}0.${'0'.repeat(-n - 1)}${digits}`;
+  const intPart = digits.slice(0, n + 1).padEnd(n + 1, '0');
+  const frac = digits.slice(n + 1);
+  return `${sign}${intPart}${frac ? `.${frac}` : ''}`;
 }
 
 /** Result of reading a typed quantity. */
@@ -68,19 +80,19 @@ export function parseQuantity(text: string, dimension: Dimension, unit: DisplayU
   if (trimmed === '') return { ok: true, valueSi: null };
   const match = NUMBER_AND_UNIT.exec(trimmed);
   if (!match) return { ok: false, message: `“${trimmed}” is not a number${unit.symbol ? ` in ${unit.symbol}` : ''}.` };
-  const number = Number(match[1].replace(',', '.'));
-  if (!Number.isFinite(number)) return { ok: false, message: `“${trimmed}” is too large.` };
+  const numeral = match[1].replace(',', '.');
+  if (!Number.isFinite(Number(numeral))) return { ok: false, message: `“${trimmed}” is too large.` };
   const suffix = match[2];
-  if (suffix === '') return { ok: true, valueSi: scaleByPowerOfTen(number, unit.exponent) };
-  if (dimension === 'ratio' && suffix === '%') return { ok: true, valueSi: number / 100 };
+  if (suffix === '') return { ok: true, valueSi: shiftDecimal(numeral, unit.exponent) };
+  if (dimension === 'ratio' && suffix === '%') return { ok: true, valueSi: shiftDecimal(numeral, -2) };
   for (const base of BASE_SYMBOLS[dimension]) {
     if (base !== '' && suffix.endsWith(base)) {
       const prefix = suffix.slice(0, suffix.length - base.length);
-      if (prefix in PREFIX_EXPONENT) return { ok: true, valueSi: scaleByPowerOfTen(number, PREFIX_EXPONENT[prefix]) };
+      if (prefix in PREFIX_EXPONENT) return { ok: true, valueSi: shiftDecimal(numeral, PREFIX_EXPONENT[prefix]) };
     }
   }
   // A bare prefix ("600u", "4.7µ", "20k") scales the SI base unit.
-  if (suffix in PREFIX_EXPONENT && BASE_SYMBOLS[dimension][0] !== '') return { ok: true, valueSi: scaleByPowerOfTen(number, PREFIX_EXPONENT[suffix]) };
+  if (suffix in PREFIX_EXPONENT && BASE_SYMBOLS[dimension][0] !== '') return { ok: true, valueSi: shiftDecimal(numeral, PREFIX_EXPONENT[suffix]) };
   const expected = BASE_SYMBOLS[dimension][0];
   return { ok: false, message: expected ? `Unit “${suffix}” does not measure ${expected}; type e.g. ${unit.symbol || expected}.` : `“${trimmed}” takes no unit.` };
 }
