@@ -1,0 +1,68 @@
+// The analysis tables: findings ordered by severity, loops with the unstable one flagged,
+// resonance landing per method, fixed-point rows highlighted by their section's checks.
+import { describe, expect, it } from 'vitest';
+import { mount } from '@vue/test-utils';
+import { Quasar } from 'quasar';
+import AnalysisFindings from '../../../src/components/AnalysisFindings.vue';
+import AnalysisLoopTable from '../../../src/components/AnalysisLoopTable.vue';
+import AnalysisResonanceTable from '../../../src/components/AnalysisResonanceTable.vue';
+import AnalysisWordTable from '../../../src/components/AnalysisWordTable.vue';
+import { designedGainTexts } from '../../../src/composables/analysisView';
+import { buildAnalysis } from '../analysisFixture';
+
+const global = { plugins: [Quasar] };
+
+describe('analysis tables', () => {
+  it('lists errors first with value, limit and remedy', () => {
+    const wrapper = mount(AnalysisFindings, { props: { checks: buildAnalysis().checks }, global });
+    const items = wrapper.findAll('[data-severity]');
+    expect(items.map((i) => i.attributes('data-severity'))).toEqual(['error', 'warning', 'info']);
+    expect(items[0].text()).toContain('Remedy: Use 32-bit words');
+    expect(items[0].text()).toContain('2.61 Hz');
+    expect(items[0].text()).toContain('limit 0.05 Hz');
+    expect(wrapper.text()).toContain('1 error');
+    expect(wrapper.text()).toContain('1 warning');
+  });
+
+  it('flags the unstable loop and says when a margin does not exist', () => {
+    const wrapper = mount(AnalysisLoopTable, { props: { loops: buildAnalysis().loops }, global });
+    const rows = wrapper.findAll('tbody tr');
+    expect(rows[0].text()).toContain('985.1 Hz');
+    expect(rows[0].text()).toContain('52.3°');
+    expect(rows[0].text()).toContain('stable');
+    expect(rows[1].text()).toContain('UNSTABLE');
+    expect(rows[1].text()).toContain('none');
+    expect(rows[1].text()).toContain('no phase crossing below Nyquist');
+    expect(rows[1].find('.vs-cell-error').exists()).toBe(true);
+  });
+
+  it('shows where each resonance lands per method and highlights the drifting one', () => {
+    const wrapper = mount(AnalysisResonanceTable, { props: { result: buildAnalysis() }, global });
+    const head = wrapper.find('thead').text();
+    for (const m of ['tustin', 'tustin prewarp', 'zoh']) expect(head).toContain(m);
+    const rows = wrapper.findAll('tbody tr');
+    expect(rows).toHaveLength(2);
+    expect(rows[0].text()).toContain('52.61');
+    expect(rows[0].text()).toContain('+2.61 Hz');
+    expect(rows[0].text()).toContain('49.9959');
+    expect(rows[0].find('.vs-cell-error').exists()).toBe(true);
+    expect(rows[1].find('.vs-cell-error').exists()).toBe(false);
+  });
+
+  it('highlights fixed-point rows by their checks and shows format, integers, drift, headroom', () => {
+    const wrapper = mount(AnalysisWordTable, { props: { result: buildAnalysis() }, global });
+    const rows = wrapper.findAll('tbody tr');
+    expect(rows.map((r) => r.attributes('data-severity'))).toEqual(['ok', 'error', 'warning']);
+    expect(rows[1].text()).toContain('Q2.14');
+    expect(rows[1].text()).toContain('16384, -32761, 16381');
+    expect(rows[1].text()).toContain('+2.61 Hz');
+    expect(rows[1].text()).toContain('4 bits');
+    expect(rows[1].text()).toContain('Resonance h1 moves 2.61 Hz');
+    expect(rows[2].text()).toContain('Lost below one LSB: b1');
+    expect(rows[1].classes()).toContain('vs-cell-error');
+  });
+
+  it('gives the designed gains for the form placeholders', () => {
+    expect(designedGainTexts(buildAnalysis())).toEqual({ 'currentLoop.kp': '3.76991', 'currentLoop.resonantGains.0': '150', 'currentLoop.resonantGains.1': '40' });
+  });
+});
