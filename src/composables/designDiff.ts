@@ -1,5 +1,7 @@
 // Field-by-field differences between two designs, for the save-conflict dialog.
 import type { DesignInput } from '../../shared/control';
+import { FIELD_BY_PATH } from './designFields';
+import { formatInUnit } from './units';
 
 /** One changed leaf value. */
 export interface DesignChange {
@@ -17,11 +19,15 @@ function flatten(value: unknown, prefix: string, out: Record<string, string>): v
     for (const [key, child] of Object.entries(value as Record<string, unknown>)) flatten(child, prefix ? `${prefix}.${key}` : key, out);
     return;
   }
-  out[prefix] = value === null || value === undefined ? 'designed by rule' : String(value);
+  const field = FIELD_BY_PATH[prefix];
+  if (value === null || value === undefined) out[prefix] = field?.optional ? 'designed by rule' : '—';
+  else if (typeof value === 'number' && field) out[prefix] = `${formatInUnit(value, field.unit)}${field.unit.symbol ? ` ${field.unit.symbol}` : ''}`;
+  else out[prefix] = String(value);
 }
 
 /**
- * Leaf paths whose values differ between `before` and `after`, sorted by path.
+ * Leaf paths whose values differ between `before` and `after`, sorted by path, written in the
+ * form's display units.
  * @param before - one design.
  * @param after - the other.
  * @returns the changes; absent leaves show as "—".

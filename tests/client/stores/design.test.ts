@@ -55,10 +55,10 @@ describe('useDesignStore', () => {
     store.setDraft({ ...store.saved!.design, grid: { voltageRmsV: 230, frequencyHz: 60 } });
     expect(await store.save()).toBeNull();
     expect(store.conflict?.theirs.version).toBe(5);
-    expect(store.conflict?.theirChanges).toEqual([{ path: 'dcLink.capacitanceF', before: '0.0022', after: '0.0033' }]);
+    expect(store.conflict?.theirChanges).toEqual([{ path: 'dcLink.capacitanceF', before: '2200 µF', after: '3300 µF' }]);
     expect(store.conflict?.myChanges).toEqual([
-      { path: 'dcLink.capacitanceF', before: '0.0033', after: '0.0022' },
-      { path: 'grid.voltageRmsV', before: '120', after: '230' },
+      { path: 'dcLink.capacitanceF', before: '3300 µF', after: '2200 µF' },
+      { path: 'grid.voltageRmsV', before: '120 V', after: '230 V' },
     ]);
     store.takeTheirs();
     expect(store.conflict).toBeNull();
