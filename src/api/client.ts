@@ -74,7 +74,8 @@ async function send(method: string, path: string, body: unknown, accept: string,
   }
   if (!response.ok) {
     const error = await errorFromResponse(response);
-    if (response.status === 401 && onUnauthorized && path !== '/api/auth/login') onUnauthorized();
+    // Sign-in and the start-up token check handle their own 401; any other 401 ends the session.
+    if (response.status === 401 && onUnauthorized && path !== '/api/auth/login' && path !== '/api/auth/me') onUnauthorized();
     throw error;
   }
   return response;

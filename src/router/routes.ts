@@ -51,7 +51,8 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('../layouts/WorkbenchLayout.vue'),
     meta: { roles: everyone },
     children: [
-      { path: '', name: 'home', redirect: { name: 'designs' }, meta: { roles: everyone } },
+      // Never rendered: the guard sends a signed-in user to their role's start page, others to sign-in.
+      { path: '', name: 'home', component: () => import('../pages/NotFoundPage.vue'), meta: { roles: everyone } },
       { path: 'designs', name: 'designs', component: () => import('../pages/DesignsPage.vue'), meta: { roles: notTester, navLabel: 'Designs', navIcon: 'precision_manufacturing', title: 'Designs' } },
       { path: 'designs/:id', name: 'design-workspace', component: () => import('../pages/DesignWorkspacePage.vue'), meta: { roles: ['engineer'], title: 'Design bench' } },
       { path: 'designs/:id/revisions', name: 'revision-history', component: () => import('../pages/RevisionHistoryPage.vue'), meta: { roles: notTester, title: 'Revisions' } },

@@ -43,3 +43,19 @@ describe('WorkbenchLayout', () => {
     await waitFor(() => (root.textContent ?? '').includes('Nothing here'));
   });
 });
+
+describe('start page', () => {
+  it.each([
+    ['tester', 'releases'],
+    ['reviewer', 'review-queue'],
+    ['engineer', 'designs'],
+    ['admin', 'designs'],
+  ] as const)('sends a %s from / to %s without a refusal note', async (role, name) => {
+    signInAs(role);
+    server.use(http.get('*/api/designs', () => HttpResponse.json([])));
+    const { root, router } = await mountApp('/');
+    await waitFor(() => router.currentRoute.value.name === name);
+    expect(router.currentRoute.value.query.refused).toBeUndefined();
+    expect(root.textContent ?? '').not.toContain('cannot open that page');
+  });
+});
