@@ -4,11 +4,11 @@ import { http, HttpResponse } from 'msw';
 import { server } from '../setup';
 import { mountApp, settle, waitFor } from '../mountApp';
 import { signInAs } from '../session';
-import { buildDesignDetail } from '../fixtures';
+import { buildDesignDetail, buildReleaseSummary, buildRevisionSummary } from '../fixtures';
 
 const rows = [
-  buildDesignDetail({ id: 1, name: 'Bay 4 rig', latestRevision: { id: 10, number: 2, status: 'in-review' }, updatedAt: '2026-11-30T10:00:00Z' }),
-  buildDesignDetail({ id: 2, name: 'Harbour cabinet LCL', owner: { id: 5, name: 'Kit Firmware' }, latestRevision: { id: 12, number: 4, status: 'approved' }, latestRelease: { id: 3, version: '1.2.0' }, updatedAt: '2026-11-29T10:00:00Z' }),
+  buildDesignDetail({ id: 1, name: 'Bay 4 rig', latestRevision: buildRevisionSummary({ id: 10, designId: 1, number: 2, status: 'in-review' }), updatedAt: '2026-11-30T10:00:00Z' }),
+  buildDesignDetail({ id: 2, name: 'Harbour cabinet LCL', owner: { id: 5, name: 'Kit Firmware', email: 'kit@varsmith.test' }, latestRevision: buildRevisionSummary({ id: 12, designId: 2, number: 4, status: 'approved' }), latestRelease: buildReleaseSummary({ version: '1.2.0', revisionNumber: 4 }), updatedAt: '2026-11-29T10:00:00Z' }),
 ];
 
 function tableText(root: HTMLElement): string {
