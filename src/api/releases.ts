@@ -1,0 +1,77 @@
+// Released sets (CONTRACT section 6: /api/revisions/:id/release, /api/releases).
+import type { ListReleasesQuery, Release } from '../../shared/api/releases';
+import { apiDownload, apiRequest, type DownloadedFile, type DownloadProgress } from './client';
+
+function idPart(id: string | number): string {
+  return encodeURIComponent(String(id));
+}
+
+function unwrapRelease(body: Release | { release: Release }): Release {
+  return 'release' in body ? body.release : body;
+}
+
+/**
+ * Lists released sets, optionally filtered.
+ * @param query - design name, design id or version filter.
+ * @returns the releases as the server orders them.
+ */
+export async function listReleases(query: Partial<ListReleasesQuery> = {}): Promise<Release[]> {
+  const search = new URLSearchParams();
+  if (query.design) search.set('design', query.design);
+  if (query.designId !== undefined) search.set('designId', String(query.designId));
+  if (query.version) search.set('version', query.version);
+  const suffix = search.toString() ? `?${search.toString()}` : '';
+  const body = await apiRequest<Release[] | { releases: Release[] }>('GET', `/api/releases${suffix}`);
+  return Array.isArray(body) ? body : body.releases;
+}
+
+/**
+ * Loads one release.
+ * @param id - release id.
+ * @returns the release.
+ */
+export async function getRelease(id: string | number): Promise<Release> {
+  return unwrapRelease(await apiRequest<Release | { release: Release }>('GET', `/api/releases/${idPart(id)}`));
+}
+
+/**
+ * Releases an approved revision under a semantic version (engineer or admin).
+ * @param revisionId - the approved revision.
+ * @param version - semver, unique per design.
+ * @returns the stored release.
+ */
+export async function createRelease(revisionId: string | number, version: string): Promise<Release> {
+  return unwrapRelease(await apiRequest<Release | { release: Release }>('POST', `/api/revisions/${idPart(revisionId)}/release`, { version }));
+}
+
+/**
+ * Downloads the stored bundle bytes of a release.
+ * @param id - release id.
+ * @param onProgress - download progress.
+ * @returns the zip file.
+ */
+export function downloadReleaseBundle(id: string | number, onProgress?: (progress: DownloadProgress) => void): Promise<DownloadedFile> {
+  return apiDownload('GET', `/api/releases/${idPart(id)}/bundle`, undefined, onProgress);
+}
+
+/**
+ * The command a bench or CI job runs to fetch and verify this release (CONTRACT section 4).
+ * @param origin - the server address as the browser sees it (e.g. `https://varsmith.lab:8443`).
+ * @param release - the release.
+ * @param token - a read-only token, or a placeholder to replace.
+ * @returns the `npx varsmith pull …` line.
+ */
+export function pullCommand(origin: string, release: Pick<Release, 'designName' | 'version' | 'fileName'>, token = '<token>'): string {
+  const file = release.fileName.endsWith('.zip') ? release.fileName : `${release.fileName}.zip`;
+  return `npx varsmith pull --server ${origin} --token ${token} --design ${shellQuote(release.designName)} --set-version ${release.version} -o ${shellQuote(file)}`;
+}
+
+/**
+ * Quotes a word for a POSIX shell when it holds anything beyond safe characters.
+ * @param word - the word.
+ * @returns the word, single-quoted when needed.
+ */
+export function shellQuote(word: string): string {
+  if (/^[A-Za-z0-9_@%+=:,./-]+$/.test(word)) return word;
+  return `'${word.replace(/'/g, `'\\''`)}'`;
+}
