@@ -38,3 +38,25 @@ export function buildAnalysis(): AnalysisResult {
     ],
   };
 }
+
+/**
+ * The same analysis with plot data: a first-order open loop k/(j f) sampled on a log grid
+ * (|L| = 1 at 1 kHz, phase -90 degrees, so the phase margin is 90 degrees), and one step.
+ * @returns the result with `responses`.
+ */
+export function buildAnalysisWithPlots(): AnalysisResult {
+  const result = buildAnalysis();
+  const frequencyHz = Array.from({ length: 41 }, (_, i) => 10 ** (1 + (3 * i) / 40));
+  const openLoop = {
+    frequencyHz,
+    magnitudeDb: frequencyHz.map((f) => 20 * Math.log10(1000 / f)),
+    phaseDeg: frequencyHz.map(() => -90),
+  };
+  result.loops[0] = { ...result.loops[0], crossoverHz: 1000, phaseMarginDeg: 90, gainMarginDb: null, crossings: [{ frequencyHz: 1000, marginValue: 90, kind: 'gain-crossover' }] };
+  result.responses = {
+    openLoop: { current: openLoop, voltage: openLoop, pll: openLoop },
+    time: { 'current-step': { timeS: [0, 5e-5, 1e-4], value: [0, 0.6, 1], label: 'inverter current (A) for a 1 A reference step' } },
+    poleZero: { current: { poles: [[1, 0]], zeros: [[-1, 0]] }, voltage: { poles: [], zeros: [] }, pll: { poles: [], zeros: [] } },
+  };
+  return result;
+}
