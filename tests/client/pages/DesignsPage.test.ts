@@ -24,8 +24,9 @@ describe('DesignsPage', () => {
     const text = tableText(root);
     expect(text).toContain('in-review');
     expect(text).toContain('r2');
-    expect(text).toContain('released');
+    expect(text).toContain('approved');
     expect(text).toContain('1.2.0');
+    expect(text).toContain('r4');
     expect(text).toContain('Kit Firmware');
     expect(root.querySelector('[data-test="new-design"]')).not.toBeNull();
   });
