@@ -1,0 +1,34 @@
+// Schema only through these timestamped migrations (umzug), applied in order and recorded in `SequelizeMeta`.
+import { SequelizeStorage, Umzug } from 'umzug';
+import type { Sequelize } from 'sequelize';
+import * as createUsers from './migrations/2026.12.01T23.30.00.create-users';
+import * as createTeamFlow from './migrations/2026.12.01T23.40.00.create-team-flow';
+
+const migrations = [
+  { name: '2026.12.01T23.30.00.create-users', module: createUsers },
+  { name: '2026.12.01T23.40.00.create-team-flow', module: createTeamFlow },
+];
+
+/**
+ * Builds the migrator for a connection.
+ * @param sequelize - the connection.
+ * @returns the umzug instance.
+ */
+export function migrator(sequelize: Sequelize): Umzug<ReturnType<Sequelize['getQueryInterface']>> {
+  return new Umzug({
+    migrations: migrations.map((m) => ({ name: m.name, up: m.module.up, down: m.module.down })),
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize }),
+    logger: undefined,
+  });
+}
+
+/**
+ * Applies every pending migration.
+ * @param sequelize - the connection.
+ * @returns the names applied.
+ */
+export async function migrate(sequelize: Sequelize): Promise<string[]> {
+  const done = await migrator(sequelize).up();
+  return done.map((m) => m.name);
+}

@@ -1,0 +1,142 @@
+// Releases: an approved revision with no error check, built once under a version unique per design.
+import { createHash } from 'node:crypto';
+import type { ListReleasesQuery } from '../../shared/api/releases';
+import { AppError, conflict, forbidden, notFound } from '../errors';
+import { record } from '../audit/service';
+import type { Actor, AppContext, UserActor } from '../middleware/context';
+import { notifyRole } from '../mail/notify';
+import { findDesign, findDesignByName } from '../designs/repository';
+import { requireValidDesign } from '../designs/designFile';
+import { analyzeDesign } from '../../shared/control';
+import { findRevision, setRevisionStatus } from '../revisions/repository';
+import { exportInputOf } from '../revisions/service';
+import { buildBundle, TOOL_VERSION } from './exporter';
+import { findRelease, findReleaseByVersion, insertRelease, listReleaseRows, markWithdrawn, releaseBytes, type ReleaseRow } from './repository';
+
+/**
+ * SHA-256 hex of bytes.
+ * @param bytes - data.
+ * @returns lower-case hex digest.
+ */
+export const sha256Hex = (bytes: Buffer): string => createHash('sha256').update(bytes).digest('hex');
+
+/**
+ * Releases a revision.
+ * @param app - services.
+ * @param actor - engineer or admin.
+ * @param revisionId - revision id.
+ * @param version - semver.
+ * @returns the release.
+ */
+export async function release(app: AppContext, actor: UserActor, revisionId: number, version: string): Promise<ReleaseRow> {
+  const revision = await findRevision(revisionId);
+  if (!revision) throw notFound(`revision ${revisionId}`);
+  const refuse = (r: typeof revision) => {
+    if (r.status !== 'approved') throw conflict('not-approved', `revision ${r.number} is ${r.status}; only an approved revision can be released`, { status: r.status });
+    const errors = r.analysis.checks.filter((c) => c.severity === 'error');
+    if (errors.length > 0) throw new AppError('error-checks', `revision ${r.number} has ${errors.length} error check(s): ${errors.map((c) => c.id).join(', ')}`, 422, { details: { checks: errors.map((c) => c.id) } });
+  };
+  refuse(revision);
+  const duplicate = () => conflict('version-taken', `version ${version} is already released for this design`, { version });
+  if (await findReleaseByVersion(revision.designId, version)) throw duplicate();
+  const built = await buildBundle(exportInputOf(revision, version));
+  const sha256 = sha256Hex(built.zip);
+  const row = await app.db.write(async (t) => {
+    const again = await findRevision(revisionId, t);
+    if (!again) throw notFound(`revision ${revisionId}`);
+    refuse(again);
+    if (await findReleaseByVersion(revision.designId, version, t)) throw duplicate();
+    const created = await insertRelease({ designId: revision.designId, revisionId, version, fileName: built.fileName, sha256, sizeBytes: built.zip.length, bundle: built.zip, releasedById: actor.id }, t);
+    await setRevisionStatus(revisionId, 'released', t);
+    await record(t, actor, 'release.create', 'release', created.id, { designId: revision.designId, revision: revision.number, version, sha256 });
+    return created;
+  });
+  await notifyRole(app, 'tester', `[Varsmith] ${revision.design.name} ${version} released`,
+    `${actor.name} released "${revision.design.name}" version ${version} (revision ${revision.number}).\n\nSHA-256: ${sha256}\n\n` +
+    `Download: ${app.config.publicUrl}/releases/${row.id}\nBench pull: npx varsmith pull --server ${app.config.publicUrl} --token <token> --design "${revision.design.name}" --set-version ${version} -o ${row.fileName}\n`);
+  return row;
+}
+
+/**
+ * Lists releases.
+ * @param q - design name, design id or version filters.
+ * @returns rows, newest first.
+ */
+export async function listReleases(q: ListReleasesQuery): Promise<ReleaseRow[]> {
+  let designId = q.designId;
+  if (q.design !== undefined) {
+    const design = await findDesignByName(q.design);
+    if (!design) return [];
+    if (designId !== undefined && designId !== design.id) return [];
+    designId = design.id;
+  }
+  return listReleaseRows({ designId, version: q.version });
+}
+
+/**
+ * Loads a release or fails with 404.
+ * @param id - release id.
+ * @returns the row.
+ */
+export async function getRelease(id: number): Promise<ReleaseRow> {
+  const row = await findRelease(id);
+  if (!row) throw notFound(`release ${id}`);
+  return row;
+}
+
+/**
+ * The stored bytes of a release, checked against the recorded SHA-256; the download is audited.
+ * @param app - services.
+ * @param actor - user or token.
+ * @param id - release id.
+ * @returns row and bytes.
+ */
+export async function downloadRelease(app: AppContext, actor: Actor, id: number): Promise<{ row: ReleaseRow; bytes: Buffer }> {
+  const row = await getRelease(id);
+  const bytes = await releaseBytes(id);
+  if (!bytes || sha256Hex(bytes) !== row.sha256) throw new AppError('integrity', `stored bundle of release ${id} does not match its recorded SHA-256`, 500);
+  await app.db.write((t) => record(t, actor, 'release.download', 'release', id, { version: row.version, sha256: row.sha256 }));
+  return { row, bytes };
+}
+
+/**
+ * Withdraws a release: it stays listed and downloadable, marked with who, when and why.
+ * @param app - services.
+ * @param actor - engineer or admin.
+ * @param id - release id.
+ * @param reason - why.
+ * @returns the row.
+ */
+export async function withdrawRelease(app: AppContext, actor: UserActor, id: number, reason: string): Promise<ReleaseRow> {
+  return app.db.write(async (t) => {
+    const row = await findRelease(id, t);
+    if (!row) throw notFound(`release ${id}`);
+    if (row.withdrawnAt !== null) throw conflict('already-withdrawn', `release ${row.version} was already withdrawn`);
+    await markWithdrawn(id, actor.id, reason, t);
+    await record(t, actor, 'release.withdraw', 'release', id, { version: row.version, reason });
+    return (await findRelease(id, t)) as ReleaseRow;
+  });
+}
+
+/**
+ * Builds a draft bundle of a saved working copy (not stored, marked draft).
+ * @param app - services.
+ * @param actor - the engineer.
+ * @param designId - design id.
+ * @returns the bundle.
+ */
+export async function draftBundle(app: AppContext, actor: UserActor, designId: number): Promise<{ zip: Buffer; fileName: string; sha256: string }> {
+  if (actor.role !== 'engineer') throw forbidden('only engineers export drafts');
+  const design = await findDesign(designId);
+  if (!design) throw notFound(`design ${designId}`);
+  const valid = await requireValidDesign(design.design);
+  let analysis;
+  try {
+    analysis = analyzeDesign(valid, { sweepPoints: 0, responseSamples: 0 });
+  } catch (err) {
+    throw new AppError('analysis-failed', `the design could not be analysed: ${(err as Error).message}`, 422);
+  }
+  const built = await buildBundle({ design: valid, analysis, version: `0.0.0-draft.${design.version}`, revision: null, createdAt: design.updatedAt.toISOString(), draft: true, toolVersion: TOOL_VERSION });
+  await app.db.write((t) => record(t, actor, 'draft.export', 'design', designId, { designVersion: design.version }));
+  return { zip: built.zip, fileName: built.fileName, sha256: sha256Hex(built.zip) };
+}

@@ -1,0 +1,93 @@
+// Account storage; returns plain objects.
+import type { Transaction } from 'sequelize';
+import type { Role } from '../../shared/api/common';
+import { UserModel } from './model';
+
+/** An account row. */
+export interface UserRow {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+  passwordHash: string;
+  disabled: boolean;
+  createdAt: Date;
+}
+
+const plain = (m: UserModel): UserRow => ({ id: m.id, email: m.email, name: m.name, role: m.role, passwordHash: m.passwordHash, disabled: Boolean(m.disabled), createdAt: m.createdAt });
+
+/**
+ * Finds an account by e-mail.
+ * @param email - lower-case address.
+ * @returns the row or null.
+ */
+export async function findUserByEmail(email: string): Promise<UserRow | null> {
+  const m = await UserModel.findOne({ where: { email } });
+  return m ? plain(m) : null;
+}
+
+/**
+ * Finds an account by id.
+ * @param id - user id.
+ * @param transaction - optional transaction.
+ * @returns the row or null.
+ */
+export async function findUser(id: number, transaction?: Transaction): Promise<UserRow | null> {
+  const m = await UserModel.findByPk(id, { transaction });
+  return m ? plain(m) : null;
+}
+
+/**
+ * Finds an enabled account by id.
+ * @param id - user id.
+ * @returns the row or null when absent or disabled.
+ */
+export async function findActiveUser(id: number): Promise<UserRow | null> {
+  const row = await findUser(id);
+  return row && !row.disabled ? row : null;
+}
+
+/**
+ * Lists accounts by id.
+ * @returns the rows.
+ */
+export async function listUsers(): Promise<UserRow[]> {
+  return (await UserModel.findAll({ order: [['id', 'ASC']] })).map(plain);
+}
+
+/**
+ * Lists enabled accounts with one role.
+ * @param role - the role.
+ * @returns the rows.
+ */
+export async function listActiveUsersWithRole(role: Role): Promise<UserRow[]> {
+  return (await UserModel.findAll({ where: { role, disabled: false }, order: [['id', 'ASC']] })).map(plain);
+}
+
+/**
+ * Counts accounts.
+ * @returns how many.
+ */
+export async function countUsers(): Promise<number> {
+  return UserModel.count();
+}
+
+/**
+ * Inserts an account.
+ * @param data - fields.
+ * @param transaction - the write transaction.
+ * @returns the row.
+ */
+export async function insertUser(data: { email: string; name: string; role: Role; passwordHash: string }, transaction: Transaction): Promise<UserRow> {
+  return plain(await UserModel.create(data, { transaction }));
+}
+
+/**
+ * Updates an account.
+ * @param id - user id.
+ * @param changes - fields to change.
+ * @param transaction - the write transaction.
+ */
+export async function updateUser(id: number, changes: Partial<Pick<UserRow, 'role' | 'disabled' | 'name'>>, transaction: Transaction): Promise<void> {
+  await UserModel.update(changes, { where: { id }, transaction });
+}
