@@ -13,8 +13,15 @@ function idPart(id: string | number): string {
  * @returns the stored review.
  */
 export async function createReview(revisionId: string | number, request: CreateReviewRequest): Promise<Review> {
-  const body = await apiRequest<Review | { review: Review }>('POST', `/api/revisions/${idPart(revisionId)}/reviews`, request);
-  return 'review' in body ? body.review : body;
+  // The server answers with the review, or with the revision whose `reviews` now include it.
+  const body = await apiRequest<Review | { review: Review } | { reviews: Review[] }>('POST', `/api/revisions/${idPart(revisionId)}/reviews`, request);
+  if ('review' in body) return body.review;
+  if ('reviews' in body && !('decision' in body)) {
+    const latest = [...body.reviews].sort((x, y) => x.id - y.id).pop();
+    if (!latest) throw new Error('The server stored no review.');
+    return latest;
+  }
+  return body as Review;
 }
 
 /**

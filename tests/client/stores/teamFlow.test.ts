@@ -184,3 +184,19 @@ describe('admin store', () => {
     expect(mail.map((m) => m.subject)).toEqual(['new', 'old']);
   });
 });
+
+describe('review answer shapes', () => {
+  it('takes the newest review when the server answers with the whole revision', async () => {
+    setActivePinia(createPinia());
+    server.use(http.post('*/api/revisions/11/reviews', () => HttpResponse.json({
+      ...buildRevisionSummary({ id: 11, status: 'approved' }),
+      reviews: [
+        { id: 3, revisionId: 11, reviewer: TEST_USERS.reviewer, decision: 'changes', comment: 'Lower kp', createdAt: '2026-11-30T09:00:00Z' },
+        { id: 7, revisionId: 11, reviewer: TEST_USERS.reviewer, decision: 'approve', comment: '', createdAt: '2026-12-01T09:00:00Z' },
+      ],
+    }, { status: 201 })));
+    const review = await useReviewStore().decide(11, { decision: 'approve', comment: '' });
+    expect(review.id).toBe(7);
+    expect(review.decision).toBe('approve');
+  });
+});
