@@ -47,9 +47,13 @@ export function maxPoleRadius(a: readonly number[]): number {
  * worst-case peak output for a unit-peak input (Oppenheim & Schafer, "Discrete-Time Signal
  * Processing", scaling for overflow by the l1 norm).
  *
- * Method: runs the recursion h[n] = b_n - a1 h[n-1] - a2 h[n-2] in binary64 until the pole
- * envelope r^n has decayed below 1e-13 (twice that horizon, for repeated poles); past 10^7 samples
- * a geometric tail max|h| r / (1 - r) over the last samples is added as an estimate.
+ * Method: h[0..3] by the recursion; from n = 2 on the response is homogeneous,
+ * h[n] = C1 p1^(n-2) + C2 p2^(n-2). First order: geometric series. Complex poles p = r e^{j theta}:
+ * h[n] = 2 Re(C p^m) = 2 |C| r^m cos(m theta + psi) keeps its sign between the zero crossings
+ * m theta + psi = pi/2 + k pi, so each run contributes |2 Re(C (p^s - p^e) / (1 - p))| (geometric sum
+ * of the run) and the sum needs about (number of half periods) steps instead of one per sample; it
+ * stops when the remaining envelope 2 |C| r^s / (1 - r) is below 1e-11 of the sum. Real second-order
+ * poles, or complex poles with sin(theta) < 1e-6, use {@link impulseResponseL1NormDirect}.
  *
  * @param b - numerator, up to three entries.
  * @param a - denominator [1, a1, a2].
@@ -58,6 +62,91 @@ export function maxPoleRadius(a: readonly number[]): number {
  * impulseResponseL1Norm([0.5], [1, -0.5, 0]); // => 1 (0.5 * sum 0.5^n)
  */
 export function impulseResponseL1Norm(b: readonly number[], a: readonly number[]): number | null {
+  const b0 = b[0] ?? 0;
+  const b1 = b[1] ?? 0;
+  const b2 = b[2] ?? 0;
+  const a1 = a[1] ?? 0;
+  const a2 = a[2] ?? 0;
+  if (a1 === 0 && a2 === 0) return Math.abs(b0) + Math.abs(b1) + Math.abs(b2);
+  const radius = maxPoleRadius([1, a1, a2]);
+  if (!(radius < 1)) return null;
+  const h0 = b0;
+  const h1 = b1 - a1 * h0;
+  const h2 = b2 - a1 * h1 - a2 * h0;
+  if (a2 === 0) return Math.abs(h0) + Math.abs(h1) + Math.abs(h2) / (1 - Math.abs(a1));
+  const h3 = -a1 * h2 - a2 * h1;
+  const disc = a1 * a1 - 4 * a2;
+  if (disc >= 0) return impulseResponseL1NormDirect(b, a);
+  const re = -a1 / 2;
+  const im = Math.sqrt(-disc) / 2;
+  const theta = Math.atan2(im, re); // (0, pi)
+  if (Math.sin(theta) < 1e-6) return impulseResponseL1NormDirect(b, a);
+  // C = (h3 - conj(p) h2) / (p - conj(p)), p - conj(p) = 2j im
+  const numRe = h3 - re * h2;
+  const numIm = im * h2;
+  const cRe = numIm / (2 * im);
+  const cIm = -numRe / (2 * im);
+  const cAbs = Math.sqrt(cRe * cRe + cIm * cIm);
+  let sum = Math.abs(h0) + Math.abs(h1);
+  if (cAbs === 0) return sum;
+  const psi = Math.atan2(cIm, cRe);
+  // 1 / (1 - p)
+  const dRe = 1 - re;
+  const dIm = -im;
+  const dAbs2 = dRe * dRe + dIm * dIm;
+  const invRe = dRe / dAbs2;
+  const invIm = -dIm / dAbs2;
+  // p^L for the run lengths met (two or three distinct values), cached; p^start is carried along
+  // by multiplication (relative drift about 1e-16 per run, a few thousand runs).
+  const stepCache = new Map<number, [number, number, number]>();
+  const power = (m: number): [number, number, number] => {
+    const rm = radius ** m;
+    return [rm * Math.cos(m * theta), rm * Math.sin(m * theta), rm];
+  };
+  let start = 0;
+  let pRe = 1;
+  let pIm = 0;
+  let envelope = 2 * cAbs; // 2 |C| r^start
+  for (let guard = 0; guard < 100_000_000; guard += 1) {
+    if (envelope / (1 - radius) <= 1e-11 * sum) break;
+    const phase = (start * theta + psi - Math.PI / 2) / Math.PI;
+    const next = Math.floor(phase) + 1;
+    let end = Math.ceil((next * Math.PI + Math.PI / 2 - psi) / theta);
+    if (end <= start) end = start + 1;
+    let stepPower = stepCache.get(end - start);
+    if (stepPower === undefined) {
+      stepPower = power(end - start);
+      stepCache.set(end - start, stepPower);
+    }
+    const qRe = pRe * stepPower[0] - pIm * stepPower[1];
+    const qIm = pRe * stepPower[1] + pIm * stepPower[0];
+    // run sum of C p^m over [start, end): C (p^start - p^end) / (1 - p), real part doubled
+    const diffRe = pRe - qRe;
+    const diffIm = pIm - qIm;
+    const gRe = diffRe * invRe - diffIm * invIm;
+    const gIm = diffRe * invIm + diffIm * invRe;
+    sum += Math.abs(2 * (cRe * gRe - cIm * gIm));
+    envelope *= stepPower[2];
+    start = end;
+    pRe = qRe;
+    pIm = qIm;
+  }
+  return sum;
+}
+
+/**
+ * l1 norm of the impulse response by running the recursion h[n] = b_n - a1 h[n-1] - a2 h[n-2] in
+ * binary64 until the pole envelope r^n has decayed below 1e-13 (twice that horizon, for repeated
+ * poles); past 10^7 samples a geometric tail max|h| r / (1 - r) over the last samples is added as
+ * an estimate. The reference for {@link impulseResponseL1Norm} and its fallback.
+ *
+ * @param b - numerator, up to three entries.
+ * @param a - denominator [1, a1, a2].
+ * @returns the norm (dimensionless), or null when a pole lies on or outside the unit circle.
+ * @example
+ * impulseResponseL1NormDirect([1], [1, 0, -0.25]); // => 1.3333 (1 + 0.25 + 0.0625 + ...)
+ */
+export function impulseResponseL1NormDirect(b: readonly number[], a: readonly number[]): number | null {
   const b0 = b[0] ?? 0;
   const b1 = b[1] ?? 0;
   const b2 = b[2] ?? 0;

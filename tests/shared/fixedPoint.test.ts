@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
 import {
-  analyzeFixedSection, fixedPointChecks, impulseResponseL1Norm, maxPoleRadius, quantizedResonanceHz, quantizeSection, resonanceHzFromDenominator,
+  analyzeFixedSection, fixedPointChecks, impulseResponseL1Norm, impulseResponseL1NormDirect, maxPoleRadius, quantizedResonanceHz, quantizeSection, resonanceHzFromDenominator,
   resonatorHalfBandwidthHz, type BlockId, type BlockResult, type SectionKind, type SectionResult,
 } from '../../shared/control/index';
 import { expectClose } from '../helpers/expectClose';
@@ -78,6 +79,22 @@ describe('analyzeFixedSection against scipy 1.17 / numpy (generate_fixed.py)', (
     expect(fa.outputL1Norm).toBeNull();
     expect(fa.deadbandLsb).toBeNull();
     expectClose(fa.maxPoleRadiusFixed, 1, { atol: 0 }, 'a2 = 1 exactly');
+  });
+
+  it('the zero-crossing run sum of the l1 norm agrees with the sample-by-sample sum (fast-check)', () => {
+    const pole = fc.record({
+      radius: fc.double({ min: 0.05, max: 0.9995, noNaN: true }),
+      thetaRad: fc.double({ min: 1e-3, max: 3.1, noNaN: true }),
+      b: fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 3, maxLength: 3 }),
+    });
+    fc.assert(fc.property(pole, ({ radius, thetaRad, b }) => {
+      const a = [1, -2 * radius * Math.cos(thetaRad), radius * radius];
+      const fast = impulseResponseL1Norm(b, a);
+      const direct = impulseResponseL1NormDirect(b, a);
+      expect(fast === null).toBe(direct === null);
+      if (fast !== null && direct !== null) expectClose(fast, direct, { rtol: 1e-8, atol: 1e-12 }, 'l1 norm');
+    }), { numRuns: 200 });
+    expectClose(impulseResponseL1NormDirect([1], [1, 0, -0.25]) ?? Number.NaN, 4 / 3, { rtol: 1e-12 }, 'even powers of 0.5');
   });
 
   it('closed forms of the helpers', () => {
