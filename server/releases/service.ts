@@ -136,7 +136,7 @@ export async function draftBundle(app: AppContext, actor: UserActor, designId: n
   } catch (err) {
     throw new AppError('analysis-failed', `the design could not be analysed: ${(err as Error).message}`, 422);
   }
-  const built = await buildBundle({ design: valid, analysis, version: `0.0.0-draft.${design.version}`, revision: null, createdAt: design.updatedAt.toISOString(), draft: true, toolVersion: TOOL_VERSION });
+  const built = await buildBundle({ design: valid, analysis, version: `0.0.0-draft.${design.version}`, revision: null, createdAt: design.updatedAt, draft: true, toolVersion: TOOL_VERSION });
   await app.db.write((t) => record(t, actor, 'draft.export', 'design', designId, { designVersion: design.version }));
   return { zip: built.zip, fileName: built.fileName, sha256: sha256Hex(built.zip) };
 }

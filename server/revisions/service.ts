@@ -89,7 +89,7 @@ export async function revisionsOfDesign(designId: number): Promise<RevisionRow[]
  * @returns the export input.
  */
 export function exportInputOf(row: RevisionRow, version: string): ExportInput {
-  return { design: row.design, analysis: row.analysis, version, revision: row.number, createdAt: row.createdAt.toISOString(), draft: false, toolVersion: TOOL_VERSION };
+  return { design: row.design, analysis: row.analysis, version, revision: row.number, createdAt: row.createdAt, draft: false, toolVersion: TOOL_VERSION };
 }
 
 /** Version stamped into headers rendered for review and diff (not a release). */
