@@ -121,6 +121,8 @@ interface Shape {
  * @param gridFrequencyHz - grid frequency in Hz (chirp band 0.1x to 10x).
  * @param options - samples per vector and seed.
  * @returns 3 vectors per block, in block order then step, chirp, noise.
+ * @throws RangeError for bad options; FixedArithmeticError when a section cannot run in the
+ *   reference arithmetic (F < 0, mixed word lengths in a block).
  * @example
  * goldenVectors(analysis, 60, { samples: 2000, seed: 1 }).map((v) => `${v.blockId}/${v.name}`);
  * // => ['voltage-pi/step', 'voltage-pi/chirp', 'voltage-pi/noise', 'pll-pi/step', ...]

@@ -6,6 +6,7 @@ import {
   resetFixedSectionState, runFixedBlock, runFixedSection, safeInputMagnitude, saturateToWord, stepFixedBlock, stepFixedSection,
   type FixedCoefficients,
 } from '../../shared/control/index';
+import { referenceDf1 } from './fixedReference';
 
 interface SectionCase { name: string; wordBits: number; fracBits: number; bInt: number[]; aInt: number[]; qFormat: string; input: number[]; output: number[] | null }
 interface BlockCase { wordBits: number; fixed: { fracBits: number; b: number[]; a: number[] }[]; input: number[]; output: number[] }
@@ -14,23 +15,6 @@ const sections = read<{ cases: SectionCase[] }>('fixed_sections.json').cases;
 const blocks = read<{ blocks: BlockCase[] }>('fixed_block.json').blocks;
 
 const fixedOf = (wordBits: number, fracBits: number, b: number[], a: number[]): FixedCoefficients => ({ wordBits, fracBits, b, a, qFormat: `Q${wordBits - fracBits}.${fracBits}` });
-
-/** Test-local reference: the CONTRACT DF-I formula in BigInt, written from the formula, not from the model. */
-function referenceDf1(fixed: FixedCoefficients, input: readonly number[]): number[] {
-  const max = BigInt(2 ** (fixed.wordBits - 1) - 1);
-  const [b0, b1, b2] = fixed.b.map(BigInt);
-  const [, a1, a2] = fixed.a.map(BigInt);
-  const f = BigInt(fixed.fracBits);
-  const rc = fixed.fracBits > 0 ? 1n << (f - 1n) : 0n;
-  let x1 = 0n, x2 = 0n, y1 = 0n, y2 = 0n;
-  return input.map((value) => {
-    const x = BigInt(value);
-    let y = (b0 * x + b1 * x1 + b2 * x2 - a1 * y1 - a2 * y2 + rc) >> f; // BigInt >> is floor, like an arithmetic shift
-    y = y > max ? max : y < -max ? -max : y;
-    x2 = x1; x1 = x; y2 = y1; y1 = y;
-    return Number(y);
-  });
-}
 
 describe('runFixedSection against Python integer arithmetic (generate_fixed.py)', () => {
   it.each(sections.filter((c) => c.output !== null).map((c) => [`${c.name}, ${c.wordBits} bit`, c] as const))('%s', (_label, c) => {
