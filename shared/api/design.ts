@@ -1,0 +1,174 @@
+// The `varsmith-design/1` schema (CONTRACT section 1), shared by the client form, the API and the CLI.
+// Every rejection names the key path and the rule; nothing is defaulted silently.
+import { z } from 'zod';
+import type { DesignInput } from '../control/types';
+
+/** A finite number within [min, max] (or (min, max] with `exclusiveMin`), with the unit in the message. */
+function bounded(min: number, max: number, unit: string, exclusiveMin = false) {
+  const range = `${exclusiveMin ? '(' : '['}${min}, ${max}] ${unit}`.trim();
+  return z
+    .number({ error: (issue) => (issue.input === undefined ? 'is required' : `must be a number (got ${typeof issue.input})`) })
+    .refine((v) => Number.isFinite(v), { message: 'must be a finite number' })
+    .refine((v) => (exclusiveMin ? v > min : v >= min) && v <= max, { message: `must lie in ${range}` });
+}
+
+/** An integer within [min, max]. */
+function integer(min: number, max: number) {
+  return bounded(min, max, '').refine((v) => Number.isInteger(v), { message: 'must be an integer' });
+}
+
+/** A gain that is either null (design it from the targets) or a positive finite number. */
+function gainOverride(max: number) {
+  return z.union([z.null(), bounded(0, max, '', true)], { error: 'must be null (designed from the targets) or a positive number' });
+}
+
+const positiveInductanceH = bounded(1e-7, 1, 'H', true);
+
+/** L filter section. */
+const lFilterSchema = z.strictObject({
+  topology: z.literal('L'),
+  inductanceH: positiveInductanceH,
+  resistanceOhm: bounded(0, 100, 'Ohm'),
+});
+
+/** LCL filter section. */
+const lclFilterSchema = z.strictObject({
+  topology: z.literal('LCL'),
+  inverterInductanceH: positiveInductanceH,
+  gridInductanceH: positiveInductanceH,
+  capacitanceF: bounded(1e-9, 1e-2, 'F', true),
+  dampingResistanceOhm: bounded(0, 1000, 'Ohm'),
+  resistanceOhm: bounded(0, 100, 'Ohm'),
+});
+
+/** Zod schema of a `varsmith-design/1` file; cross-field rules (Nyquist) are applied by `parseDesign`. */
+export const designSchema = z.strictObject({
+  format: z.literal('varsmith-design/1', { error: 'must be "varsmith-design/1"' }),
+  name: z.string({ error: 'must be a string' }).trim().min(1, 'must not be empty').max(120, 'must be at most 120 characters'),
+  grid: z.strictObject({
+    voltageRmsV: bounded(1, 1000, 'V', true),
+    frequencyHz: bounded(10, 1000, 'Hz'),
+  }),
+  rating: z.strictObject({ apparentPowerVA: bounded(1, 1e7, 'VA') }),
+  filter: z.discriminatedUnion('topology', [lFilterSchema, lclFilterSchema], { error: 'topology must be "L" or "LCL"' }),
+  dcLink: z.strictObject({
+    capacitanceF: bounded(1e-7, 10, 'F', true),
+    voltageRefV: bounded(1, 5000, 'V'),
+  }),
+  sampling: z.strictObject({
+    switchingFrequencyHz: bounded(100, 1e6, 'Hz'),
+    updatesPerCarrier: integer(1, 2),
+    computationDelaySamples: integer(0, 4),
+  }),
+  currentLoop: z.strictObject({
+    crossoverHz: bounded(0, 1e5, 'Hz', true),
+    harmonics: z
+      .array(integer(1, 50), { error: 'must be an array of harmonic orders' })
+      .min(1, 'must hold at least the fundamental')
+      .max(16, 'must hold at most 16 harmonics')
+      .refine((hs) => new Set(hs).size === hs.length, { message: 'must not repeat a harmonic' }),
+    resonantBandwidthHz: bounded(0, 100, 'Hz'),
+    kp: gainOverride(1e6),
+    resonantGains: z.union([z.null(), z.array(bounded(0, 1e9, '', true))], { error: 'must be null or an array of positive numbers' }),
+  }),
+  voltageLoop: z.strictObject({
+    crossoverHz: bounded(0, 1e4, 'Hz', true),
+    phaseMarginDeg: bounded(1, 89, 'deg'),
+    kp: gainOverride(1e6),
+    ki: gainOverride(1e9),
+  }),
+  pll: z.strictObject({
+    sogiGain: bounded(0.01, 10, '', true),
+    settlingTimeS: bounded(1e-4, 10, 's'),
+    dampingRatio: bounded(0.05, 5, ''),
+    kp: gainOverride(1e6),
+    ki: gainOverride(1e9),
+  }),
+  reactiveFilter: z.strictObject({
+    order: z.union([z.literal(1), z.literal(2)], { error: 'must be 1 or 2' }),
+    cutoffHz: bounded(0, 1e4, 'Hz', true),
+  }),
+  fixedPoint: z.strictObject({
+    wordBits: z.union([z.literal(16), z.literal(32)], { error: 'must be 16 or 32' }),
+  }),
+});
+
+/** The design as the schema infers it. */
+export type ParsedDesign = z.infer<typeof designSchema>;
+
+/** One rejected key: `path` like `filter.inductanceH` or `currentLoop.harmonics.2`. */
+export interface DesignIssue {
+  path: string;
+  message: string;
+}
+
+/** Outcome of `parseDesign`. */
+export type ParseDesignResult = { ok: true; design: DesignInput } | { ok: false; issues: DesignIssue[] };
+
+/** Cross-field rules: sampling above twice every resonator frequency and every target below Nyquist. */
+function crossFieldIssues(d: ParsedDesign): DesignIssue[] {
+  const issues: DesignIssue[] = [];
+  const sampleRateHz = d.sampling.switchingFrequencyHz * d.sampling.updatesPerCarrier;
+  const nyquistHz = sampleRateHz / 2;
+  d.currentLoop.harmonics.forEach((h, i) => {
+    const hz = h * d.grid.frequencyHz;
+    if (hz >= nyquistHz) {
+      issues.push({ path: `currentLoop.harmonics.${i}`, message: `harmonic ${h} (${hz} Hz) must lie below Nyquist (${nyquistHz} Hz = half the ${sampleRateHz} Hz sampling rate)` });
+    }
+  });
+  const belowNyquist: [string, number][] = [
+    ['currentLoop.crossoverHz', d.currentLoop.crossoverHz],
+    ['voltageLoop.crossoverHz', d.voltageLoop.crossoverHz],
+    ['reactiveFilter.cutoffHz', d.reactiveFilter.cutoffHz],
+  ];
+  for (const [path, hz] of belowNyquist) {
+    if (hz >= nyquistHz) issues.push({ path, message: `must lie below Nyquist (${nyquistHz} Hz = half the ${sampleRateHz} Hz sampling rate)` });
+  }
+  if (d.grid.frequencyHz >= nyquistHz) issues.push({ path: 'grid.frequencyHz', message: `must lie below Nyquist (${nyquistHz} Hz)` });
+  if (d.currentLoop.resonantGains !== null && d.currentLoop.resonantGains.length !== d.currentLoop.harmonics.length) {
+    issues.push({ path: 'currentLoop.resonantGains', message: `must be null or hold one gain per harmonic (${d.currentLoop.harmonics.length})` });
+  }
+  if (d.voltageLoop.crossoverHz >= d.grid.frequencyHz) {
+    issues.push({ path: 'voltageLoop.crossoverHz', message: `must lie below the grid frequency (${d.grid.frequencyHz} Hz): the DC-link loop must not follow the twice-grid-frequency ripple` });
+  }
+  return issues;
+}
+
+/**
+ * Validates an unknown value as a `varsmith-design/1` design.
+ *
+ * @param input - parsed JSON of a design file (any value).
+ * @returns `{ ok: true, design }` or `{ ok: false, issues }` with one issue per rejected key
+ *   (path joined with dots, array indices as numbers), schema rules first, then cross-field rules.
+ * @example
+ * parseDesign({ format: 'varsmith-design/1' }); // => { ok: false, issues: [{ path: 'name', message: 'must be a string' }, ...] }
+ */
+export function parseDesign(input: unknown): ParseDesignResult {
+  const parsed = designSchema.safeParse(input);
+  if (!parsed.success) {
+    const issues = parsed.error.issues.map((issue) => ({
+      path: issue.path.length > 0 ? issue.path.map(String).join('.') : '(root)',
+      message:
+        issue.code === 'unrecognized_keys'
+          ? `unknown key(s): ${issue.keys.join(', ')}`
+          : /received undefined/.test(issue.message)
+            ? 'is required'
+            : issue.message,
+    }));
+    return { ok: false, issues };
+  }
+  const cross = crossFieldIssues(parsed.data);
+  if (cross.length > 0) return { ok: false, issues: cross };
+  const design: DesignInput = parsed.data;
+  return { ok: true, design };
+}
+
+/**
+ * Formats design issues as one line each, `path: message`.
+ *
+ * @param issues - issues from `parseDesign`.
+ * @returns the lines joined with newlines.
+ */
+export function formatDesignIssues(issues: readonly DesignIssue[]): string {
+  return issues.map((i) => `${i.path}: ${i.message}`).join('\n');
+}
