@@ -4,8 +4,8 @@ import { readFileSync } from 'node:fs';
 import {
   AccumulatorOverflowError, FIXED_ARITHMETIC, FixedArithmeticError, createFixedBlockState, createFixedSectionState, resetFixedBlockState,
   resetFixedSectionState, runFixedBlock, runFixedSection, safeInputMagnitude, saturateToWord, stepFixedBlock, stepFixedSection,
-  type FixedCoefficients,
-} from '../../shared/control/index';
+} from '../../shared/control/fixedModel';
+import type { FixedCoefficients } from '../../shared/control/types';
 import { referenceDf1 } from './fixedReference';
 
 interface SectionCase { name: string; wordBits: number; fracBits: number; bInt: number[]; aInt: number[]; qFormat: string; input: number[]; output: number[] | null }

@@ -2,9 +2,11 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
 import {
-  analyzeFixedSection, fixedPointChecks, impulseResponseL1Norm, impulseResponseL1NormDirect, maxPoleRadius, quantizedResonanceHz, quantizeSection, resonanceHzFromDenominator,
-  resonatorHalfBandwidthHz, type BlockId, type BlockResult, type SectionKind, type SectionResult,
-} from '../../shared/control/index';
+  analyzeFixedSection, fixedPointChecks, impulseResponseL1Norm, impulseResponseL1NormDirect, maxPoleRadius, quantizedResonanceHz, resonatorHalfBandwidthHz,
+} from '../../shared/control/fixedPoint';
+import { quantizeSection } from '../../shared/control/quantize';
+import { resonanceHzFromDenominator } from '../../shared/control/resonance';
+import type { BlockId, BlockResult, SectionKind, SectionResult } from '../../shared/control/types';
 import { expectClose } from '../helpers/expectClose';
 
 interface SectionCase {

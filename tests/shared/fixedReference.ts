@@ -1,5 +1,5 @@
-import type { AnalysisResult, FixedCoefficients, SectionKind } from '../../shared/control/index';
-import { quantizeSection } from '../../shared/control/index';
+import type { AnalysisResult, FixedCoefficients, SectionKind } from '../../shared/control/types';
+import { quantizeSection } from '../../shared/control/quantize';
 import { readFileSync } from 'node:fs';
 
 /**

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
-import { maxFracBits, qFormatLabel, quantizedResonanceHz, quantizeSection, quantizeValue, roundToInteger, type QFormat } from '../../shared/control/index';
+import { maxFracBits, qFormatLabel, quantizeSection, quantizeValue, roundToInteger, type QFormat } from '../../shared/control/quantize';
+import { quantizedResonanceHz } from '../../shared/control/fixedPoint';
 import { expectClose } from '../helpers/expectClose';
 
 interface SectionCase {

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { goldenVectors, runFixedBlock, safeInputMagnitude, sinTurns, xorshift32, VECTOR_MAX_SATURATED_FRACTION, type FixedCoefficients } from '../../shared/control/index';
+import { goldenVectors, sinTurns, xorshift32, VECTOR_MAX_SATURATED_FRACTION } from '../../shared/control/vectors';
+import { runFixedBlock, safeInputMagnitude } from '../../shared/control/fixedModel';
+import type { FixedCoefficients } from '../../shared/control/types';
 import { expectClose } from '../helpers/expectClose';
 import { fixtureAnalysis, referenceBlock } from './fixedReference';
 
