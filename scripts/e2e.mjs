@@ -10,8 +10,8 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import {
-  ARTIFACTS, ROOT, buildClientIfNeeded, createDesignAndShowPlots, field, instrumentCanvas, launchBrowser,
-  measureKeystrokeToPlots, signIn, startServer, watchPage,
+  ARTIFACTS, ROOT, buildClientIfNeeded, createDesign, field, instrumentCanvas, launchBrowser,
+  measureKeystrokeToPlots, showPlots, signIn, startServer, watchPage,
 } from '../tests/e2e/harness.mjs';
 
 const results = [];
@@ -114,12 +114,12 @@ async function main() {
 
     await step('engineer creates a design and sees the plots drawn (canvas pixels)', async () => {
       const page = pages.engineer;
-      const created = await createDesignAndShowPlots(page, origin, designName);
-      designId = created.id;
+      designId = await createDesign(page, origin, designName);
+      const ink = await showPlots(page);
       await shot(page, 'engineer-workspace-plots');
-      expect(created.ink.canvases > 0, 'no canvas on the Loop shapes tab');
-      expect(created.ink.inkFraction >= 0.002, `the plots are blank (ink ${created.ink.inkFraction})`);
-      process.stdout.write(`        ${created.ink.canvases} canvases, ${(created.ink.inkFraction * 100).toFixed(1)} % of pixels drawn\n`);
+      expect(ink.canvases > 0, 'no canvas on the Loop shapes tab');
+      expect(ink.inkFraction >= 0.002, `the plots are blank (ink ${ink.inkFraction})`);
+      process.stdout.write(`        ${ink.canvases} canvases, ${(ink.inkFraction * 100).toFixed(1)} % of pixels drawn\n`);
     });
 
     await step('keystroke -> redrawn plots in Chromium (measured, target <= 50 ms)', async () => {

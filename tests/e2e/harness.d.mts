@@ -42,5 +42,9 @@ export function signIn(page: Page, origin: string, role: 'engineer' | 'reviewer'
 export function canvasInk(page: Page): Promise<{ canvases: number; inkFraction: number }>;
 /** Times keystroke -> redrawn plots. */
 export function measureKeystrokeToPlots(page: Page, selector: string, rounds?: number): Promise<KeystrokeTiming>;
+/** Creates a design through the New design dialog; returns its id. */
+export function createDesign(page: Page, origin: string, name: string): Promise<number>;
+/** Opens the Loop shapes tab and waits for ink on its canvases. */
+export function showPlots(page: Page): Promise<{ canvases: number; inkFraction: number }>;
 /** Creates a design as the engineer and waits for drawn plots. */
 export function createDesignAndShowPlots(page: Page, origin: string, name: string): Promise<{ id: number; ink: { canvases: number; inkFraction: number } }>;

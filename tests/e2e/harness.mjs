@@ -260,19 +260,27 @@ export async function measureKeystrokeToPlots(page, selector, rounds = 12) {
 }
 
 /**
- * Opens a new design as the engineer and waits for the Loop shapes plots to carry ink.
+ * Creates a design through the "New design" dialog as the engineer and waits for its workspace.
  * @param page - a signed-in engineer page.
  * @param origin - server origin.
  * @param name - design name.
- * @returns the design id and the ink measurement.
+ * @returns the design id.
  */
-export async function createDesignAndShowPlots(page, origin, name) {
+export async function createDesign(page, origin, name) {
   await page.goto(`${origin}/designs`);
   await page.locator('[data-test="new-design"]').click();
   await field(page, 'new-design-name').fill(name);
   await page.locator('[data-test="create-design"]').click();
   await page.waitForURL(/\/designs\/\d+$/, { timeout: 15_000 });
-  const id = Number(new URL(page.url()).pathname.split('/').pop());
+  return Number(new URL(page.url()).pathname.split('/').pop());
+}
+
+/**
+ * Opens the Loop shapes tab of the workspace and waits until its canvases carry ink.
+ * @param page - a page on the workspace.
+ * @returns the ink measurement.
+ */
+export async function showPlots(page) {
   await page.getByRole('tab', { name: /Loop shapes/ }).click();
   await page.locator('canvas').first().waitFor({ state: 'attached', timeout: 20_000 });
   let ink = await canvasInk(page);
@@ -281,5 +289,17 @@ export async function createDesignAndShowPlots(page, origin, name) {
     await page.waitForTimeout(200);
     ink = await canvasInk(page);
   }
-  return { id, ink };
+  return ink;
+}
+
+/**
+ * Creates a design and shows its plots.
+ * @param page - a signed-in engineer page.
+ * @param origin - server origin.
+ * @param name - design name.
+ * @returns the design id and the ink measurement.
+ */
+export async function createDesignAndShowPlots(page, origin, name) {
+  const id = await createDesign(page, origin, name);
+  return { id, ink: await showPlots(page) };
 }
