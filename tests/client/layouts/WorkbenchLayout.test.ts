@@ -52,7 +52,7 @@ describe('start page', () => {
     ['admin', 'designs'],
   ] as const)('sends a %s from / to %s without a refusal note', async (role, name) => {
     signInAs(role);
-    server.use(http.get('*/api/designs', () => HttpResponse.json([])));
+    server.use(http.get('*/api/designs', () => HttpResponse.json([])), http.get('*/api/releases', () => HttpResponse.json([])), http.get('*/api/revisions*', () => HttpResponse.json([])));
     const { root, router } = await mountApp('/');
     await waitFor(() => router.currentRoute.value.name === name);
     expect(router.currentRoute.value.query.refused).toBeUndefined();

@@ -89,6 +89,7 @@ describe('DesignsPage', () => {
 
   it('refuses the designs list to a tester (sent to released sets)', async () => {
     signInAs('tester');
+    server.use(http.get('*/api/releases', () => HttpResponse.json([])));
     const { router } = await mountApp('/designs');
     await waitFor(() => router.currentRoute.value.name === 'releases');
   });

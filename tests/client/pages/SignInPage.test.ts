@@ -51,6 +51,7 @@ describe('SignInPage', () => {
   it('sends a tester to the released sets and hides engineer navigation', async () => {
     server.use(
       http.post('*/api/auth/login', () => HttpResponse.json({ token: 'tok-t', user: users.tester })),
+      http.get('*/api/releases', () => HttpResponse.json([])),
     );
     const { root, router } = await mountApp('/sign-in');
     type(root, '[data-test="email"]', users.tester.email);
