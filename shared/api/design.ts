@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import type { DesignInput } from '../control/types';
 
-/** A finite number within [min, max] (or (min, max] with `exclusiveMin`), with the unit in the message. */
+// A finite number within [min, max] (or (min, max] with `exclusiveMin`), with the unit in the message.
 function bounded(min: number, max: number, unit: string, exclusiveMin = false) {
   const range = `${exclusiveMin ? '(' : '['}${min}, ${max}] ${unit}`.trim();
   return z
@@ -12,12 +12,12 @@ function bounded(min: number, max: number, unit: string, exclusiveMin = false) {
     .refine((v) => (exclusiveMin ? v > min : v >= min) && v <= max, { message: `must lie in ${range}` });
 }
 
-/** An integer within [min, max]. */
+// An integer within [min, max].
 function integer(min: number, max: number) {
   return bounded(min, max, '').refine((v) => Number.isInteger(v), { message: 'must be an integer' });
 }
 
-/** A gain that is either null (design it from the targets) or a positive finite number. */
+// A gain that is either null (design it from the targets) or a positive finite number.
 function gainOverride(max: number) {
   return z.union([z.null(), bounded(0, max, '', true)], { error: 'must be null (designed from the targets) or a positive number' });
 }
@@ -105,7 +105,7 @@ export interface DesignIssue {
 /** Outcome of `parseDesign`. */
 export type ParseDesignResult = { ok: true; design: DesignInput } | { ok: false; issues: DesignIssue[] };
 
-/** Cross-field rules: sampling above twice every resonator frequency and every target below Nyquist. */
+// Cross-field rules: sampling above twice every resonator frequency and every target below Nyquist.
 function crossFieldIssues(d: ParsedDesign): DesignIssue[] {
   const issues: DesignIssue[] = [];
   const sampleRateHz = d.sampling.switchingFrequencyHz * d.sampling.updatesPerCarrier;

@@ -8,6 +8,7 @@ import type { DesignInput } from '../../shared/control/types';
 const examplesDir = new URL('../../examples/', import.meta.url);
 const demo = JSON.parse(readFileSync(new URL('sc3-bench-l-120v.json', examplesDir), 'utf8'));
 
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- mutations poke at arbitrary keys of a JSON clone
 type Mutation = (d: any) => void;
 const clone = () => JSON.parse(JSON.stringify(demo));
 
