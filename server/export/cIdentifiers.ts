@@ -1,11 +1,13 @@
+import { createHash } from 'node:crypto';
 import type { BlockId } from '../../shared/control/index';
 
 /**
  * The C naming scheme of exported bundles.
  *
- * - Prefix `p`: the design slug with dashes as underscores, cut to 16 characters (so every external
+ * - Prefix `p`: the design slug with dashes as underscores, at most 16 characters (so every external
  *   name `p_` + at most 14 characters stays within the 31 significant characters C99 guarantees
- *   for external identifiers). A `v` is put in front when the slug would start with a digit or with
+ *   for external identifiers); a longer one keeps its first 11 characters, then `_` and the first 4
+ *   hex digits of the SHA-256 of the whole slug, so long names that share a start stay distinct. A `v` is put in front when the slug would start with a digit or with
  *   a pattern C99 section 7.26 or POSIX reserves for the library (`is`/`to`/`str`/`mem`/`wcs` + a
  *   lower-case letter, `int`/`uint`, `e` + digit, `sig`, `lc_`, `pri`, `scn`).
  * - Functions and types (lower case): `p_clamp`, `p_floor_shift`, `p_taps_step`, `p_delay_clear`,
@@ -35,7 +37,7 @@ export function cNames(slug: string): CNames {
   let base = slug.toLowerCase().replace(/[^a-z0-9]+/g, '_').replace(/^_+|_+$/g, '');
   if (base === '') base = 'design';
   if (RESERVED_START.test(base)) base = `v${base}`;
-  base = base.slice(0, 16).replace(/_+$/g, '');
+  if (base.length > 16) base = `${base.slice(0, 11).replace(/_+$/g, '')}_${createHash('sha256').update(slug).digest('hex').slice(0, 4)}`;
   return { prefix: base, macro: base.toUpperCase() };
 }
 

@@ -1,4 +1,4 @@
-import { FIXED_ARITHMETIC, signalMax, type AnalysisResult, type BlockResult, type DesignInput, type GoldenVector, type SectionResult } from '../../shared/control/index';
+import { FIXED_ARITHMETIC, safeInputMagnitude, signalMax, type AnalysisResult, type BlockResult, type DesignInput, type GoldenVector, type SectionResult } from '../../shared/control/index';
 import { canonicalJson, sha256Hex } from './canonical';
 import { blockToken, cNames, roleToken, type CNames } from './cIdentifiers';
 import { designSlug } from './slug';
@@ -47,6 +47,9 @@ export interface SectionView {
   qFormat: string;
   fracBits: number;
   shiftMacro: string;
+  inputLimitMacro: string;
+  inputLimit: string;
+  inputLimitLsb: string;
   prewarp: string;
   coefficients: CoefficientView[];
   bMacros: string[];
@@ -121,8 +124,9 @@ export interface VectorView {
   tableName: string;
   sectionsMacro: string;
   groupIndex: number;
-  inRows: string[];
-  outRows: string[];
+  /** Initializer lines of the input and expected tables, indented, one string each. */
+  inText: string;
+  outText: string;
 }
 
 /**
@@ -201,6 +205,9 @@ function presentSection(c: CNames, block: BlockResult, section: SectionResult, i
     qFormat: f.qFormat,
     fracBits: f.fracBits,
     shiftMacro: `${base}_SHIFT`,
+    inputLimitMacro: `${base}_INPUT_LIMIT`,
+    inputLimit: cInt32(safeInputMagnitude(f)),
+    inputLimitLsb: String(safeInputMagnitude(f)),
     prewarp: section.prewarpHz === null ? 'none' : `${fmt(section.prewarpHz)} Hz`,
     coefficients,
     bMacros: coefficients.slice(0, 3).map((x) => x.macro),
@@ -332,8 +339,8 @@ export function presentBundle(design: DesignInput, analysis: AnalysisResult, met
       tableName: `${c.prefix}_${blockToken(v.blockId)}_taps`,
       sectionsMacro: `${c.macro}_${blockToken(v.blockId).toUpperCase()}_SECTIONS`,
       groupIndex: blockIndex.get(v.blockId) ?? -1,
-      inRows: rows(v.input),
-      outRows: rows(v.expected),
+      inText: rows(v.input).map((r) => `  ${r}`).join('\n'),
+      outText: rows(v.expected).map((r) => `  ${r}`).join('\n'),
     })),
     vectorCount: vectors.length,
     vectorSamples: vectors.length === 0 ? 0 : vectors[0].input.length,

@@ -15,7 +15,7 @@ const DOS_EPOCH_MS = Date.UTC(1980, 0, 1, 0, 0, 0);
 /**
  * Deterministic zip: every entry under `<root>/`, directories (0755) and files (0644 unless given)
  * in sorted path order, every timestamp `createdAt` (UTC, clamped to 1980 at the earliest, whole
- * seconds rounded down to even as the zip format stores them), deflate level 9. Same inputs give
+ * seconds rounded down to even as the zip format stores them), deflate level 6. Same inputs give
  * the same bytes.
  *
  * @param root - root folder name, e.g. `sc-3-bench-unit-1.2.0`.
@@ -39,7 +39,7 @@ export async function buildZip(root: string, files: readonly ZipFile[], createdA
     ...files.map((f) => ({ path: f.path, dir: false as const, content: f.content, mode: f.mode ?? 0o644 })),
   ].sort((p, q) => (p.path < q.path ? -1 : p.path > q.path ? 1 : 0));
 
-  const archive = new ZipArchive({ zlib: { level: 9 } });
+  const archive = new ZipArchive({ zlib: { level: 6 } });
   const sink = new PassThrough();
   const chunks: Buffer[] = [];
   sink.on('data', (c: Buffer) => chunks.push(c));
