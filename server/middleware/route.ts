@@ -66,7 +66,7 @@ export function route<S extends RouteSchemas, T extends boolean = false, Acc ext
 }
 
 /**
- * Formats a zod issue path: `design.currentLoop.harmonics[2]`.
+ * Formats a zod issue path like the design schema does: `design.currentLoop.harmonics.2`.
  * @param prefix - part of the request (`''` for the body).
  * @param path - the issue path.
  * @returns the dotted path.
@@ -74,8 +74,7 @@ export function route<S extends RouteSchemas, T extends boolean = false, Acc ext
 export function formatPath(prefix: string, path: readonly PropertyKey[]): string {
   let out = prefix;
   for (const key of path) {
-    if (typeof key === 'number') out += `[${key}]`;
-    else out += out === '' ? String(key) : `.${String(key)}`;
+    out += out === '' ? String(key) : `.${String(key)}`;
   }
   return out;
 }

@@ -5,7 +5,7 @@ import type { AnalysisResult, DesignInput } from '../../shared/control';
 type Flat = Map<string, unknown>;
 
 /**
- * Flattens JSON into `path → leaf` (arrays indexed `[i]`).
+ * Flattens JSON into `path → leaf` (array items by index, `harmonics.2`, as the design schema names them).
  * @param value - any JSON value.
  * @param prefix - path so far.
  * @param out - accumulator.
@@ -14,7 +14,7 @@ type Flat = Map<string, unknown>;
 export function flatten(value: unknown, prefix = '', out: Flat = new Map()): Flat {
   if (Array.isArray(value)) {
     if (value.length === 0) out.set(prefix, []);
-    value.forEach((v, i) => flatten(v, `${prefix}[${i}]`, out));
+    value.forEach((v, i) => flatten(v, prefix === "" ? String(i) : `${prefix}.${i}`, out));
   } else if (value !== null && typeof value === 'object') {
     const entries = Object.entries(value as Record<string, unknown>);
     if (entries.length === 0) out.set(prefix, {});

@@ -72,3 +72,23 @@ describe.each(table.filter((r) => r.access !== 'anyone').map((r) => [`${r.method
     else expect(res.status).toBe(403);
   });
 });
+
+describe('bad input on every route', () => {
+  const allowedToken = (r: (typeof table)[number]) => tokens[(r.access as Role[])[0]];
+  it.each(table.filter((r) => r.schema.body !== undefined).map((r) => [`${r.method.toUpperCase()} ${r.path}`, r] as const))('%s: a body of wrong types is 400 naming fields', async (_n, r) => {
+    let req = call(r.method, concrete(r.path).replace(/999/g, '1'));
+    if (r.access !== 'anyone') req = req.set('Authorization', bearer(allowedToken(r)));
+    const res = await req.send({ design: 7, email: 7, password: 7, summary: 7, decision: 7, version: 7, name: 7, role: 7, baseVersion: 'x', reason: 7, disabled: 'no' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.length).toBeGreaterThan(0);
+    for (const f of res.body.error.fields) {
+      expect(typeof f.path).toBe('string');
+      expect(f.message.length).toBeGreaterThan(0);
+    }
+  });
+  it.each(table.filter((r) => r.path.includes(':') && r.access !== 'anyone').map((r) => [`${r.method.toUpperCase()} ${r.path}`, r] as const))('%s: a non-numeric id is 400 naming the param', async (_n, r) => {
+    const res = await call(r.method, `/api${r.path.replace(/:[a-z]+/g, 'abc')}`).set('Authorization', bearer(allowedToken(r))).send({});
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.some((f: { path: string }) => f.path.startsWith('params.'))).toBe(true);
+  });
+});
