@@ -93,6 +93,7 @@ async function main() {
   let latency = null;
   let tokenSecret = null;
   let pullLine = null;
+  let firstRevisionId = null;
   try {
     for (const role of Object.keys(TOURS)) {
       await step(`${role} signs in through the form and tours ${TOURS[role].join(', ')}`, async () => {
@@ -138,11 +139,18 @@ async function main() {
       await page.locator('[data-test="submit-confirm"]').click();
       const res = await answer;
       expect(res.status() === 201, `submission answered ${res.status()}: ${await res.text()}`);
+      firstRevisionId = (await res.json()).id;
       await page.waitForTimeout(300);
       await shot(page, 'engineer-submitted');
     });
 
-    await step('the engineer cannot approve: the reviewer approves from the queue', async () => {
+    await step('the engineer cannot approve their own revision (403): the reviewer approves from the queue', async () => {
+      expect(firstRevisionId !== null, 'nothing submitted');
+      const engineerToken = await pages.engineer.evaluate(() => window.sessionStorage.getItem('varsmith.session'));
+      const refused = await fetch(`${origin}/api/revisions/${firstRevisionId}/reviews`, {
+        method: 'POST', headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${engineerToken}` }, body: JSON.stringify({ decision: 'approve', comment: '' }),
+      });
+      expect(refused.status === 403, `the engineer's own approval answered ${refused.status}`);
       const page = pages.reviewer;
       await page.goto(`${origin}/reviews`);
       const entry = page.locator('[data-test^="review-entry-"]', { hasText: designName });
@@ -233,6 +241,42 @@ async function main() {
       } finally {
         rmSync(dir, { recursive: true, force: true });
       }
+    });
+
+    await step('engineer submits r2; the reviewer compares r1 with r2 (inputs, header diff) and sends it back', async () => {
+      expect(designId !== null, 'no design');
+      const page = pages.engineer;
+      await page.goto(`${origin}/designs/${designId}`);
+      const crossover = page.locator('[data-path="currentLoop.crossoverHz"] input').first();
+      await crossover.waitFor({ timeout: 15_000 });
+      await crossover.fill('800');
+      await page.waitForTimeout(400);
+      await page.locator('[data-test="open-submit"]').click();
+      await field(page, 'submit-summary', 'textarea').fill('Current-loop crossover down to 800 Hz for more phase margin.');
+      const answer = page.waitForResponse((r) => r.request().method() === 'POST' && /\/api\/designs\/\d+\/revisions$/.test(r.url()), { timeout: 30_000 });
+      await page.locator('[data-test="submit-confirm"]').click();
+      const res = await answer;
+      expect(res.status() === 201, `second submission answered ${res.status()}: ${await res.text()}`);
+      const reviewer = pages.reviewer;
+      await reviewer.goto(`${origin}/reviews`);
+      const entry = reviewer.locator('[data-test^="review-entry-"]', { hasText: designName });
+      await entry.waitFor({ timeout: 15_000 });
+      await entry.click();
+      await reviewer.locator('[data-test="review-compare"]').click();
+      await reviewer.waitForURL(/\/revisions\/\d+\/compare\/\d+$/);
+      const changed = reviewer.locator('[data-test="side-inputs"] tr[data-changed="yes"]', { hasText: 'currentLoop.crossoverHz' });
+      await changed.waitFor({ timeout: 15_000 });
+      expect((await changed.textContent()).includes('800'), 'the changed crossover does not show 800');
+      await shot(reviewer, 'reviewer-compare-side-by-side');
+      await reviewer.locator('[data-test="compare-tab-header"]').click();
+      await reviewer.locator('[data-test="header-diff"], [data-test="header-diff-empty"]').first().waitFor();
+      expect(await reviewer.locator('[data-test="header-diff"] [data-kind="added"]').count() > 0, 'the header diff shows no added line for a changed gain');
+      await shot(reviewer, 'reviewer-compare-header-diff');
+      await field(reviewer, 'review-comment', 'textarea').fill('Keep 1 kHz; the margin was fine.');
+      const verdict = reviewer.waitForResponse((r) => r.request().method() === 'POST' && /\/api\/revisions\/\d+\/reviews$/.test(r.url()), { timeout: 30_000 });
+      await reviewer.locator('[data-test="review-send-back"]').click();
+      const sent = await verdict;
+      expect(sent.status() === 201 || sent.status() === 200, `send back answered ${sent.status()}`);
     });
 
     await step('admin sees the release in the audit trail and the mails in the outbox', async () => {
