@@ -2,8 +2,7 @@
 import { idParamsSchema } from '../../shared/api/common';
 import { createTokenRequestSchema } from '../../shared/api/releases';
 import { route } from '../middleware/route';
-import { findUser } from '../users/repository';
-import { presentToken } from './presenter';
+import { tokenView } from './presenter';
 import { issueToken, revokeToken, visibleTokens } from './service';
 
 const roles: ['tester', 'admin'] = ['tester', 'admin'];
@@ -14,21 +13,19 @@ export const tokenRoutes = [
     method: 'post', path: '/tokens', access: roles, schema: { body: createTokenRequestSchema },
     handler: async ({ input, actor, app, res }) => {
       const { row, secret } = await issueToken(app, actor, input.body.name);
-      res.status(201).json({ ...presentToken(row, await findUser(row.ownerId)), secret });
+      res.status(201).json({ ...(await tokenView(row)), secret });
     },
   }),
   route({
     method: 'get', path: '/tokens', access: roles, schema: {},
     handler: async ({ actor, res }) => {
-      const rows = await visibleTokens(actor);
-      res.json(await Promise.all(rows.map(async (r) => presentToken(r, await findUser(r.ownerId)))));
+      res.json(await Promise.all((await visibleTokens(actor)).map(tokenView)));
     },
   }),
   route({
     method: 'delete', path: '/tokens/:id', access: roles, schema: { params: idParamsSchema },
     handler: async ({ input, actor, app, res }) => {
-      const row = await revokeToken(app, actor, input.params.id);
-      res.json(presentToken(row, await findUser(row.ownerId)));
+      res.json(await tokenView(await revokeToken(app, actor, input.params.id)));
     },
   }),
 ];
