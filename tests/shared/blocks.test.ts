@@ -6,7 +6,14 @@ import { expectClose } from '../helpers/expectClose';
 import { lowPassPrewarped, piTustin, resonatorPrewarped, sectionResponse, sogiPrewarped } from '../../shared/control/blocks';
 import { resonanceHzFromDenominator } from '../../shared/control/resonance';
 
-const fixture = JSON.parse(readFileSync(new URL('../fixtures/scipy/blocks.json', import.meta.url), 'utf8'));
+interface Pair { b: number[]; a: number[] }
+interface Fixture {
+  resonators: (Pair & { gridHz: number; harmonic: number; sampleRateHz: number; gain: number; bandwidthHz: number })[];
+  sogi: { gridHz: number; sampleRateHz: number; k: number; d: Pair; q: Pair }[];
+  lowpass: (Pair & { order: 1 | 2; cutoffHz: number; sampleRateHz: number })[];
+  pi: (Pair & { kp: number; ki: number; sampleRateHz: number })[];
+}
+const fixture = JSON.parse(readFileSync(new URL('../fixtures/scipy/blocks.json', import.meta.url), 'utf8')) as Fixture;
 const REL = { rtol: 1e-9, atol: 1e-15 };
 
 describe('sections match scipy.signal.bilinear at the prewarped rate (scipy 1.17.1)', () => {
