@@ -34,7 +34,12 @@ export const MANIFEST_FORMAT = 'varsmith-manifest/1';
  */
 export function renderBundleFiles(input: BundleInput): { root: string; slug: string; files: ZipFile[] } {
   const meta: ExportMeta = { version: input.version, revision: input.revision, draft: input.draft, toolVersion: input.toolVersion, createdAt: input.createdAt };
-  const vectors = goldenVectors(input.analysis, input.design.grid.frequencyHz, { samples: VECTOR_SAMPLES, seed: VECTOR_SEED });
+  let vectors;
+  try {
+    vectors = goldenVectors(input.analysis, input.design.grid.frequencyHz, { samples: VECTOR_SAMPLES, seed: VECTOR_SEED });
+  } catch (err) {
+    throw new Error(`cannot build the golden vectors of this design: ${(err as Error).message}`, { cause: err });
+  }
   const view = presentBundle(input.design, input.analysis, meta, vectors);
   const text = (s: string): Buffer => Buffer.from(s, 'utf8');
   const files: ZipFile[] = [

@@ -181,7 +181,10 @@ function flatten(value: unknown, path: string, out: { path: string; value: strin
 }
 
 function presentSection(c: CNames, block: BlockResult, section: SectionResult, index: number, count: number): SectionView {
-  const base = `${c.macro}_${blockToken(block.id).toUpperCase()}_${roleToken(section.role)}`;
+  const token = roleToken(section.role);
+  // two sections of one block with the same role (e.g. a repeated harmonic) get their index appended
+  const repeated = block.sections.some((s, i) => i !== index && roleToken(s.role) === token);
+  const base = `${c.macro}_${blockToken(block.id).toUpperCase()}_${token}${repeated ? `_${index}` : ''}`;
   const f = section.fixed;
   const scale = 2 ** -f.fracBits;
   const entries: [string, number, number][] = [
