@@ -2,9 +2,9 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
-import type { AnalysisResult, DesignInput } from '../../shared/control/index';
+import { analyzeDesign, type AnalysisResult, type DesignInput } from '../../shared/control/index';
 import { buildBundle, canonicalJson, renderCoefficientHeader, sha256Hex, type BundleInput } from '../../server/export/index';
-import { analysisFixture, L32_DESIGN, LCL16_DESIGN } from './helpers/analysisFixture';
+import { L32_DESIGN, LCL16_DESIGN } from './helpers/designs';
 import { makeCheck, readZip, unpack } from './helpers/unpack';
 
 // The system C compiler running the generated code is the outside reference for the arithmetic:
@@ -13,7 +13,7 @@ import { makeCheck, readZip, unpack } from './helpers/unpack';
 const CREATED_AT = new Date('2026-11-30T10:00:00Z');
 
 function analysisFor(design: DesignInput): AnalysisResult {
-  return analysisFixture(design);
+  return analyzeDesign(design, { sweepPoints: 0, responseSamples: 0 });
 }
 
 function input(design: DesignInput, over: Partial<BundleInput> = {}): BundleInput {
@@ -106,8 +106,9 @@ describe('bundle bytes and manifest', () => {
   it('the zip does not depend on the time zone of the machine', () => {
     // Node decides the zone at start-up, so the export runs in child processes with different TZ.
     const script = `import { buildBundle } from './server/export/index';
-import { analysisFixture, LCL16_DESIGN } from './tests/export/helpers/analysisFixture';
-const b = await buildBundle({ design: LCL16_DESIGN, analysis: analysisFixture(LCL16_DESIGN), version: '1.4.0', revision: 7, createdAt: new Date('2026-11-30T23:30:00Z'), draft: false, toolVersion: '0.1.0' });
+import { analyzeDesign } from './shared/control/index';
+import { LCL16_DESIGN } from './tests/export/helpers/designs';
+const b = await buildBundle({ design: LCL16_DESIGN, analysis: analyzeDesign(LCL16_DESIGN, { sweepPoints: 0, responseSamples: 0 }), version: '1.4.0', revision: 7, createdAt: new Date('2026-11-30T23:30:00Z'), draft: false, toolVersion: '0.1.0' });
 process.stdout.write(b.sha256);`;
     const run = (tz: string): string => {
       const r = spawnSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], { cwd: process.cwd(), env: { ...process.env, TZ: tz }, encoding: 'utf8' });

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeDesign, type DesignInput } from '../../shared/control/index';
-import { L32_DESIGN } from './helpers/analysisFixture';
+import { L32_DESIGN } from './helpers/designs';
 import { makeCheck, readZip, unpack } from './helpers/unpack';
 
 // `npx varsmith export` end to end through bin/varsmith.mjs, on the demo designs in examples/ and on
