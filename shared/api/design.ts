@@ -69,7 +69,8 @@ export const designSchema = z.strictObject({
       .refine((hs) => new Set(hs).size === hs.length, { message: 'must not repeat a harmonic' }),
     resonantBandwidthHz: bounded(0, 100, 'Hz'),
     kp: gainOverride(1e6),
-    resonantGains: z.union([z.null(), z.array(bounded(0, 1e9, '', true))], { error: 'must be null or an array of positive numbers' }),
+    // Nullable array (not a union) so a bad element is reported at its own index, e.g. currentLoop.resonantGains.2.
+    resonantGains: z.array(bounded(0, 1e9, '', true), { error: 'must be null or an array of positive numbers' }).nullable(),
   }),
   voltageLoop: z.strictObject({
     crossoverHz: bounded(0, 1e4, 'Hz', true),
