@@ -12,6 +12,19 @@ import { createDesign } from '../designs/service';
 import { submitRevision } from '../revisions/service';
 import { decide } from '../reviews/service';
 import { release } from '../releases/service';
+import { parseDesign } from '../../shared/api/design';
+import { analyzeDesign } from '../../shared/control';
+
+// Error checks of an example (Infinity when it does not parse or analyse), so the released demo set is one that may be released.
+function errorCount(candidate: unknown): number {
+  const parsed = parseDesign(candidate);
+  if (!parsed.ok) return Infinity;
+  try {
+    return analyzeDesign(parsed.design, { sweepPoints: 0, responseSamples: 0 }).checks.filter((c) => c.severity === 'error').length;
+  } catch {
+    return Infinity;
+  }
+}
 
 /** The demo password (the README tells operators to change it). */
 export const DEMO_PASSWORD = 'varsmith-demo';
@@ -53,7 +66,8 @@ export async function seedIfEmpty(app: AppContext): Promise<boolean> {
     }
     return out as Record<Role, UserActor>;
   });
-  const designs = exampleDesigns();
+  // Cleanest examples first: the first becomes the released set, the last the one sent back.
+  const designs = exampleDesigns().map((d) => ({ d, errors: errorCount(d) })).sort((a, b) => a.errors - b.errors).map((x) => x.d);
   const log = (m: string) => { if (app.config.logLevel !== 'silent') process.stderr.write(`${m}\n`); };
   const steps: ((d: unknown) => Promise<void>)[] = [
     async (d) => {
@@ -68,8 +82,12 @@ export async function seedIfEmpty(app: AppContext): Promise<boolean> {
     },
     async (d) => {
       const design = await createDesign(app, actors.engineer, d);
-      const rev = await submitRevision(app, actors.engineer, design.id, 'Raised current-loop crossover');
-      await decide(app, actors.reviewer, rev.id, { decision: 'changes', comment: 'Phase margin is thin at the new crossover; lower it or justify the delay model.' });
+      const rev = await submitRevision(app, actors.engineer, design.id, 'First tuning for the smaller controller');
+      const errors = rev.analysis.checks.filter((c) => c.severity === 'error').map((c) => c.id);
+      const comment = errors.length > 0
+        ? `The checks report errors (${errors.join(', ')}); resolve them before this set can be released.`
+        : 'Phase margin is thin at this crossover; lower it or justify the delay model.';
+      await decide(app, actors.reviewer, rev.id, { decision: 'changes', comment });
     },
   ];
   for (let i = 0; i < Math.min(designs.length, steps.length); i++) {
