@@ -34,6 +34,8 @@ export interface CoefficientView {
   name: string;
   macro: string;
   integer: string;
+  /** The integer as plain decimal text (report). */
+  code: string;
   realMacro: string;
   real: string;
   quantized: string;
@@ -195,6 +197,7 @@ function presentSection(c: CNames, block: BlockResult, section: SectionResult, i
     name,
     macro: `${base}_${name}`,
     integer: cInt32(code),
+    code: String(code),
     realMacro: `${base}_${name}_REAL`,
     real: cDouble(real),
     quantized: fmt(code * scale, 12),

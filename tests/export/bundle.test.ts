@@ -193,6 +193,24 @@ describe('DRAFT, safety caution and header', () => {
     }
   });
 
+  it('REPORT.md lists every section with its Q format and integers, every loop margin and every check', async () => {
+    const analysis = analysisFor(LCL16_DESIGN);
+    const bundle = await buildBundle(input(LCL16_DESIGN));
+    const entries = await readZip(bundle.zip);
+    const report = entries.find((e) => e.name.endsWith('REPORT.md'))!.content.toString('utf8');
+    for (const block of analysis.blocks) {
+      expect(report).toContain(`### ${block.id} (${block.method})`);
+      for (const s of block.sections) {
+        expect(report).toContain(`**${s.role}** (${s.kind}), ${s.fixed.qFormat}, F = ${s.fixed.fracBits}`);
+        expect(report).toContain(`| B0 | ${String(s.b[0]).includes('.') || String(s.b[0]).includes('e') ? String(s.b[0]) : `${s.b[0]}.0`} | ${s.fixed.b[0]} |`);
+      }
+    }
+    for (const loop of analysis.loops) expect(report).toMatch(new RegExp(`^\\| ${loop.id} \\| `, 'm'));
+    for (const check of analysis.checks) expect(report).toContain(`| ${check.severity} | ${check.id} |`);
+    const errors = analysis.checks.filter((c) => c.severity === 'error');
+    for (const e of errors) expect(report).toContain(`ERROR ${e.id}`);
+  });
+
   it('renderCoefficientHeader gives the bundle header byte for byte and holds guard, version, revision, hash and scaling', async () => {
     const meta = { version: '1.4.0', revision: 7, draft: false, toolVersion: '0.1.0', createdAt: CREATED_AT };
     const header = renderCoefficientHeader(L32_DESIGN, analysisFor(L32_DESIGN), meta);
