@@ -10,7 +10,7 @@
  */
 import { ControlError } from './errors';
 import { loopMargins, type FrequencyFocus } from './margins';
-import { polyvalComplex, roots, trimLeadingZeros, type Complex } from './polynomial';
+import { roots, trimLeadingZeros, type Complex } from './polynomial';
 import { eigenvalues, zohStateSpace, type Matrix, type StateSpace } from './stateSpace';
 import { simulateLoop } from './timeResponse';
 import { ssToTf } from './transferFunction';
@@ -225,6 +225,7 @@ function loopEvaluator(loop: SampledLoop): (omegaRadPerS: number) => Complex {
   const sb = loop.sections.map((s) => s.b);
   const sa = loop.sections.map((s) => s.a);
   const d = loop.delaySamples;
+  const out: Complex = { re: 0, im: 0 }; // reused: callers read it immediately
   return (w: number): Complex => {
     const th = w * Ts;
     const qr = Math.cos(th);
@@ -247,16 +248,20 @@ function loopEvaluator(loop: SampledLoop): (omegaRadPerS: number) => Complex {
     // z^-d
     const dr = Math.cos(d * th);
     const di = -Math.sin(d * th);
+    // plant num(z)/den(z), z = e^{j th}, Horner without allocation
     const zr = qr;
-    const zi = -qi; // z = e^{j th}
-    const pn = polyvalComplex(num, zr, zi);
-    const pd = polyvalComplex(den, zr, zi);
-    const pm = pd.re * pd.re + pd.im * pd.im;
-    const pr = (pn.re * pd.re + pn.im * pd.im) / pm;
-    const pi = (pn.im * pd.re - pn.re * pd.im) / pm;
+    const zi = -qi;
+    let nr = 0, ni = 0, er = 0, ei = 0;
+    for (let k = 0; k < num.length; k++) { const t = nr * zr - ni * zi + num[k]; ni = nr * zi + ni * zr; nr = t; }
+    for (let k = 0; k < den.length; k++) { const t = er * zr - ei * zi + den[k]; ei = er * zi + ei * zr; er = t; }
+    const pm = er * er + ei * ei;
+    const pr = (nr * er + ni * ei) / pm;
+    const pi = (ni * er - nr * ei) / pm;
     const t1r = cr * dr - ci * di;
     const t1i = cr * di + ci * dr;
-    return { re: t1r * pr - t1i * pi, im: t1r * pi + t1i * pr };
+    out.re = t1r * pr - t1i * pi;
+    out.im = t1r * pi + t1i * pr;
+    return out;
   };
 }
 
@@ -340,7 +345,7 @@ function openLoopSweep(evaluate: (w: number) => Complex, samplePeriodS: number, 
   let skipped = 0;
   for (const f of logspace(startHz, nyquistHz, points)) {
     const l = evaluate(2 * Math.PI * f);
-    const mag = Math.hypot(l.re, l.im);
+    const mag = Math.sqrt(l.re * l.re + l.im * l.im);
     if (!Number.isFinite(mag) || mag === 0) { skipped++; continue; }
     frequencyHz.push(f);
     magnitudeDb.push(20 * Math.log10(mag));

@@ -49,20 +49,27 @@ const FOCUS_POINTS = 48;
  */
 export function marginGrid(samplePeriodS: number, focus: readonly FrequencyFocus[]): number[] {
   const wN = Math.PI / samplePeriodS;
-  const w0 = wN * 10 ** -GRID_DECADES;
-  const grid: number[] = [];
-  const ratio = GRID_DECADES / (GRID_POINTS - 1);
-  for (let i = 0; i < GRID_POINTS; i++) grid.push(w0 * 10 ** (i * ratio));
-  for (const f of focus) {
-    if (!(f.centerRadPerS > 0) || !(f.halfWidthRadPerS > 0) || !Number.isFinite(f.centerRadPerS) || !Number.isFinite(f.halfWidthRadPerS)) continue;
+  const logW0 = Math.log(wN) - GRID_DECADES * Math.LN10;
+  const step = (GRID_DECADES * Math.LN10) / (GRID_POINTS - 1);
+  const valid = focus.filter((f) => f.centerRadPerS > 0 && f.halfWidthRadPerS > 0 && Number.isFinite(f.centerRadPerS) && Number.isFinite(f.halfWidthRadPerS));
+  const all = new Float64Array(GRID_POINTS + 2 * FOCUS_POINTS * valid.length);
+  let k = 0;
+  for (let i = 0; i < GRID_POINTS; i++) all[k++] = Math.exp(logW0 + i * step);
+  const gStep = (6 * Math.LN10) / (FOCUS_POINTS - 1);
+  for (const f of valid) {
     for (let i = 0; i < FOCUS_POINTS; i++) {
-      const g = 10 ** (-3 + (6 * i) / (FOCUS_POINTS - 1));
-      grid.push(f.centerRadPerS - f.halfWidthRadPerS * g, f.centerRadPerS + f.halfWidthRadPerS * g);
+      const off = f.halfWidthRadPerS * Math.exp(-3 * Math.LN10 + i * gStep);
+      all[k++] = f.centerRadPerS - off;
+      all[k++] = f.centerRadPerS + off;
     }
   }
-  const sorted = grid.filter((w) => w > 0 && w < wN).sort((a, b) => a - b);
+  all.sort();
   const out: number[] = [];
-  for (const w of sorted) if (out.length === 0 || w > out[out.length - 1] * (1 + 1e-13)) out.push(w);
+  for (let i = 0; i < all.length; i++) {
+    const w = all[i];
+    if (!(w > 0) || w >= wN) continue;
+    if (out.length === 0 || w > out[out.length - 1] * (1 + 1e-13)) out.push(w);
+  }
   out.push(wN);
   return out;
 }
@@ -102,7 +109,8 @@ function golden(f: (w: number) => number, lo: number, hi: number): number {
  * arg L at each such w, wrapped to (-180, 180], worst (smallest) one reported; gain margin =
  * -20 log10 |L| at each w where L is real and negative with |L| < 1 (including w = pi/Ts), the
  * smallest reported; peak sensitivity Ms = max |1/(1 + L)| (Skogestad & Postlethwaite 2005).
- * @param evaluate - L at angular frequency w (rad/s), as { re, im } (non-finite at poles on the unit circle).
+ * @param evaluate - L at angular frequency w (rad/s), as { re, im } (non-finite at poles on the unit circle); the
+ *   returned object may be reused by the evaluator, it is read immediately.
  * @param samplePeriodS - Ts in s (> 0).
  * @param focus - narrow features (resonances) to sample densely.
  * @returns the margins; null values carry a sentence in `notes`.
@@ -122,9 +130,9 @@ export function loopMargins(evaluate: (omegaRadPerS: number) => Complex, sampleP
     const l = evaluate(grid[i]);
     re[i] = l.re;
     im[i] = l.im;
-    logMag[i] = Math.log(Math.hypot(l.re, l.im));
+    logMag[i] = 0.5 * Math.log(l.re * l.re + l.im * l.im);
   }
-  const logMagAt = (w: number): number => { const l = evaluate(w); return Math.log(Math.hypot(l.re, l.im)); };
+  const logMagAt = (w: number): number => { const l = evaluate(w); return 0.5 * Math.log(l.re * l.re + l.im * l.im); };
   const imAt = (w: number): number => evaluate(w).im;
   const toHz = (w: number): number => w / (2 * Math.PI);
   const crossings: LoopCrossing[] = [];
@@ -168,14 +176,14 @@ export function loopMargins(evaluate: (omegaRadPerS: number) => Complex, sampleP
   // Peak sensitivity: best grid points, then golden-section refinement between neighbours.
   const sens = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    const s = 1 / Math.hypot(1 + re[i], im[i]);
+    const s = 1 / Math.sqrt((1 + re[i]) * (1 + re[i]) + im[i] * im[i]);
     sens[i] = Number.isFinite(s) ? s : 0;
   }
   let best = 0;
   for (let i = 1; i < n; i++) if (sens[i] > sens[best]) best = i;
   let peak = sens[best];
   let peakW = grid[best];
-  const sensAt = (w: number): number => { const l = evaluate(w); const s = 1 / Math.hypot(1 + l.re, l.im); return Number.isFinite(s) ? s : 0; };
+  const sensAt = (w: number): number => { const l = evaluate(w); const s = 1 / Math.sqrt((1 + l.re) * (1 + l.re) + l.im * l.im); return Number.isFinite(s) ? s : 0; };
   const candidates: number[] = [];
   for (let i = 0; i < n; i++) {
     const left = i > 0 ? sens[i - 1] : -1;
