@@ -47,6 +47,22 @@ describe('make check on exported bundles', () => {
     expect(result.status).toBe(0);
   });
 
+  it('the reference code runs every vector without undefined behaviour (UBSan: signed overflow, shifts)', async () => {
+    for (const design of [L32_DESIGN, LCL16_DESIGN]) {
+      const bundle = await buildBundle(input(design));
+      const { dir, entries } = await unpack(bundle.zip);
+      const root = join(dir, entries[0].name);
+      const sources = entries.filter((e) => e.name.endsWith('.c')).map((e) => e.name.slice(entries[0].name.length));
+      const build = spawnSync('cc', ['-std=c99', '-Wall', '-Wextra', '-Werror', '-pedantic', '-O1', '-fsanitize=undefined', '-fno-sanitize-recover=all', '-Iinclude', '-Itest', '-o', 'run_ub', ...sources], { cwd: root, encoding: 'utf8' });
+      expect(build.stderr).toBe('');
+      expect(build.status).toBe(0);
+      const run = spawnSync('./run_ub', [], { cwd: root, encoding: 'utf8' });
+      expect(run.stderr).toBe('');
+      expect(run.stdout).toContain('18 passed, 0 failed');
+      expect(run.status).toBe(0);
+    }
+  });
+
   it('a coefficient one LSB off in the header fails the vectors of its block (every block of a 32-bit design)', async () => {
     const bundle = await buildBundle(input(L32_DESIGN));
     const analysis = analysisFor(L32_DESIGN);
