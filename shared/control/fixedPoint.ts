@@ -96,37 +96,40 @@ export function impulseResponseL1Norm(b: readonly number[], a: readonly number[]
   const dAbs2 = dRe * dRe + dIm * dIm;
   const invRe = dRe / dAbs2;
   const invIm = -dIm / dAbs2;
-  // p^L for the run lengths met (two or three distinct values), cached; p^start is carried along
-  // by multiplication (relative drift about 1e-16 per run, a few thousand runs).
-  const stepCache = new Map<number, [number, number, number]>();
+  // Sign runs: cos(m theta + psi) changes sign after m = c0 + k P (P = pi / theta), so run k ends at
+  // floor(c0 + k P) + 1. Run lengths are floor(P) or floor(P) + 1 (other lengths only at the start),
+  // their powers p^L are precomputed; p^start is carried by multiplication (relative drift about
+  // 1e-16 per run).
+  const period = Math.PI / theta;
+  const c0 = (Math.PI / 2 - psi) / theta;
   const power = (m: number): [number, number, number] => {
     const rm = radius ** m;
     return [rm * Math.cos(m * theta), rm * Math.sin(m * theta), rm];
   };
+  const shortLength = Math.floor(period);
+  const shortPower = power(shortLength);
+  const longPower = power(shortLength + 1);
+  let k = Math.floor(-c0 / period) + 1;
   let start = 0;
   let pRe = 1;
   let pIm = 0;
   let envelope = 2 * cAbs; // 2 |C| r^start
   for (let guard = 0; guard < 100_000_000; guard += 1) {
     if (envelope / (1 - radius) <= 1e-11 * sum) break;
-    const phase = (start * theta + psi - Math.PI / 2) / Math.PI;
-    const next = Math.floor(phase) + 1;
-    let end = Math.ceil((next * Math.PI + Math.PI / 2 - psi) / theta);
+    let end = Math.floor(c0 + k * period) + 1;
+    k += 1;
     if (end <= start) end = start + 1;
-    let stepPower = stepCache.get(end - start);
-    if (stepPower === undefined) {
-      stepPower = power(end - start);
-      stepCache.set(end - start, stepPower);
-    }
-    const qRe = pRe * stepPower[0] - pIm * stepPower[1];
-    const qIm = pRe * stepPower[1] + pIm * stepPower[0];
+    const length = end - start;
+    const step = length === shortLength ? shortPower : length === shortLength + 1 ? longPower : power(length);
+    const qRe = pRe * step[0] - pIm * step[1];
+    const qIm = pRe * step[1] + pIm * step[0];
     // run sum of C p^m over [start, end): C (p^start - p^end) / (1 - p), real part doubled
     const diffRe = pRe - qRe;
     const diffIm = pIm - qIm;
     const gRe = diffRe * invRe - diffIm * invIm;
     const gIm = diffRe * invIm + diffIm * invRe;
     sum += Math.abs(2 * (cRe * gRe - cIm * gIm));
-    envelope *= stepPower[2];
+    envelope *= step[2];
     start = end;
     pRe = qRe;
     pIm = qIm;
