@@ -1,0 +1,72 @@
+// Acceptance of analyzeDesign end to end, on designs not in examples/ with every gain given, against
+// tests/fixtures/scipy/analysis.json written by generate_analysis.py (scipy 1.17.1, numpy): section
+// coefficients by scipy.signal.bilinear at the prewarped rate, plant by scipy.signal.cont2discrete 'zoh',
+// margins from a dense numpy sweep refined with brentq, poles by numpy.linalg.eigvals of a parallel-section
+// state space. Tolerances of the acceptance: coefficients 1e-9 relative, PM ±1°, GM ±0.3 dB, Ms ±2 %,
+// max pole radius ±2e-5.
+import { describe, it, expect } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { expectClose } from '../helpers/expectClose';
+import { analyzeDesign } from '../../shared/control/analyze';
+import type { DesignInput, LoopId } from '../../shared/control/types';
+
+interface RefLoop {
+  crossoverHz: number | null;
+  phaseMarginDeg: number | null;
+  gainMarginDb: number | null;
+  peakSensitivity: number;
+  maxPoleRadius: number;
+  stable: boolean;
+  poles: [number, number][];
+}
+interface RefCase {
+  design: DesignInput;
+  sampleTimeS: number;
+  sections: Record<string, { b: number[]; a: number[] }[]>;
+  loops: Record<LoopId, RefLoop>;
+}
+const fixture = JSON.parse(readFileSync(new URL('../fixtures/scipy/analysis.json', import.meta.url), 'utf8')) as { generator: string; cases: RefCase[] };
+
+const cases = fixture.cases.map((c) => [c.design.name, c] as const);
+const loopIds: LoopId[] = ['current', 'voltage', 'pll'];
+
+describe(`analyzeDesign against ${fixture.generator}`, () => {
+  it.each(cases)('%s: every section matches scipy to 1e-9 relative', (_name, ref) => {
+    const result = analyzeDesign(ref.design, { sweepPoints: 0, responseSamples: 0 });
+    expectClose(result.sampleTimeS, ref.sampleTimeS, { rtol: 1e-15 }, 'Ts');
+    for (const [blockId, sections] of Object.entries(ref.sections)) {
+      const block = result.blocks.find((b) => b.id === blockId);
+      expect(block, blockId).toBeDefined();
+      expect(block?.sections.length, `${blockId} sections`).toBe(sections.length);
+      sections.forEach((want, i) => {
+        const got = block?.sections[i];
+        const scale = Math.max(...want.b.map(Math.abs), ...want.a.map(Math.abs));
+        expectClose(got?.b ?? [], want.b, { rtol: 1e-9, atol: 1e-15 * scale }, `${blockId}[${i}].b`);
+        expectClose(got?.a ?? [], want.a, { rtol: 1e-9, atol: 1e-15 * scale }, `${blockId}[${i}].a`);
+      });
+    }
+  });
+
+  it.each(cases)('%s: margins, peak sensitivity and poles of the three loops', (_name, ref) => {
+    const result = analyzeDesign(ref.design, { sweepPoints: 0, responseSamples: 0 });
+    for (const id of loopIds) {
+      const want = ref.loops[id];
+      const got = result.loops.find((l) => l.id === id);
+      expect(got, id).toBeDefined();
+      if (!got) continue;
+      expect(got.stable, `${id} stable`).toBe(want.stable);
+      expect(got.phaseMarginDeg === null, `${id} PM null`).toBe(want.phaseMarginDeg === null);
+      if (want.phaseMarginDeg !== null) expectClose(got.phaseMarginDeg ?? NaN, want.phaseMarginDeg, { atol: 1 }, `${id} PM`);
+      expect(got.gainMarginDb === null, `${id} GM null (got ${got.gainMarginDb})`).toBe(want.gainMarginDb === null);
+      if (want.gainMarginDb !== null) expectClose(got.gainMarginDb ?? NaN, want.gainMarginDb, { atol: 0.3 }, `${id} GM`);
+      if (want.crossoverHz !== null) expectClose(got.crossoverHz ?? NaN, want.crossoverHz, { rtol: 5e-3 }, `${id} crossover`);
+      expectClose(got.peakSensitivity, want.peakSensitivity, { rtol: 0.02 }, `${id} Ms`);
+      expectClose(got.maxPoleRadius, want.maxPoleRadius, { atol: 2e-5 }, `${id} max pole radius`);
+      // Every non-trivial reference pole has a computed pole within 2e-5.
+      for (const [re, im] of want.poles) {
+        const nearest = Math.min(...got.closedLoopPoles.map(([r, i]) => Math.hypot(r - re, i - im)));
+        expect(nearest, `${id} pole ${re}${im >= 0 ? '+' : ''}${im}j`).toBeLessThan(2e-5);
+      }
+    }
+  });
+});
