@@ -197,6 +197,23 @@ describe('fixedPointChecks', () => {
     expect(drift[0].severity).toBe('info');
   });
 
+  it('special cases: a gain beyond the word (F < 0) is a coefficient-range error; a gain above 1 reports headroom; bad Ts throws', () => {
+    const huge = quantizeSection([40000, 0, 0], [1, 0, 0], 16);
+    expect(huge.fracBits).toBe(-1);
+    const checks = fixedPointChecks([blockOf('current-pr', [{ role: 'proportional', kind: 'gain', prewarpHz: null, b: [40000, 0, 0], a: [1, 0, 0], fixed: huge }])], { samplePeriodS: ts20, wordBits: 16, gridFrequencyHz: 50 });
+    expect(checks).toHaveLength(1);
+    expect(checks[0]).toMatchObject({ id: 'current-pr-coefficient-range', severity: 'error', value: -1 });
+    const kp = sectionOf(find('proportional kp = 3.77', 16));
+    const fa = analyzeFixedSection(kp, kp.fixed, ts20);
+    expect(fa.deadbandLsb).toBeNull();
+    expect(fa.headroomBits).toBe(2); // l1 = 3.770 -> 2 bits
+    expect(fixedPointChecks([blockOf('current-pr', [kp])], { samplePeriodS: ts20, wordBits: 16, gridFrequencyHz: 50 })).toEqual([
+      expect.objectContaining({ id: 'current-pr-headroom', severity: 'info', value: 2, unit: 'bit' }),
+    ]);
+    expect(() => analyzeFixedSection(kp, kp.fixed, 0)).toThrow(/samplePeriodS/);
+    expect(() => analyzeFixedSection(kp, kp.fixed, Number.NaN)).toThrow(/samplePeriodS/);
+  });
+
   it('every error and warning names a remedy; every check survives JSON and has a block id', () => {
     const all = cases.map((c) => blockOf(c.kind === 'pi' ? 'voltage-pi' : c.kind === 'low-pass' ? 'reactive-lpf' : c.kind === 'gain' ? 'current-pr' : c.kind === 'resonator' ? 'current-pr' : 'sogi-d', [sectionOf(c)]));
     const checks = fixedPointChecks(all, { samplePeriodS: ts20, wordBits: 16, gridFrequencyHz: 50 });
