@@ -15,6 +15,8 @@ import {
 } from '../tests/e2e/harness.mjs';
 
 const results = [];
+/** Signed-in page per role. */
+const pages = {};
 let problems = [];
 const sink = (message) => problems.push(message);
 
@@ -29,6 +31,9 @@ async function step(name, fn) {
   } catch (err) {
     results.push({ name, ok: false });
     process.stdout.write(`  FAIL  ${name}\n      ${(err && err.message) || err}\n`);
+    for (const [role, page] of Object.entries(pages)) {
+      await page.screenshot({ path: path.join(ARTIFACTS, `FAILED-step${results.length}-${role}.png`), fullPage: true }).catch(() => {});
+    }
   }
 }
 
@@ -86,7 +91,6 @@ async function main() {
   const server = await startServer();
   const browser = await launchBrowser();
   const { origin } = server;
-  const pages = {};
   const designName = `Pier 9 shunt unit ${Date.now().toString(36)}`;
   let designId = null;
   let release = null;
@@ -299,7 +303,7 @@ async function main() {
   if (!latency || latency.medianMs === null) {
     process.stdout.write('keystroke -> redrawn plots: not measured (the plots did not redraw)\n');
   } else {
-    process.stdout.write(`keystroke -> redrawn plots: median ${latency.medianMs?.toFixed(1)} ms, p95 ${latency.p95Ms?.toFixed(1)} ms, min ${latency.minMs?.toFixed(1)} ms, max ${latency.maxMs?.toFixed(1)} ms over ${latency.samplesMs.length} keystrokes (target <= 50 ms)\n`);
+    process.stdout.write(`keystroke -> redrawn plots: median ${latency.medianMs?.toFixed(1)} ms, p95 ${latency.p95Ms?.toFixed(1)} ms, min ${latency.minMs?.toFixed(1)} ms, max ${latency.maxMs?.toFixed(1)} ms over ${latency.samplesMs.length} keystrokes (target <= 50 ms; the workspace reports the analysis itself at a median ${latency.analysisMedianMs ?? '?'} ms, plus a 150 ms input debounce)\n`);
   }
   const passed = results.filter((r) => r.ok).length;
   const failed = results.length - passed;

@@ -20,6 +20,7 @@ export interface KeystrokeTiming {
   p95Ms: number | null;
   minMs: number | null;
   maxMs: number | null;
+  analysisMedianMs: number | null;
 }
 
 /** Builds the client when dist/ is older than its sources; returns whether it built. */
