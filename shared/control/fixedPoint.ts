@@ -204,7 +204,9 @@ export function quantizedResonanceHz(fixed: FixedCoefficients, samplePeriodS: nu
  *   circle — ideal resonators (a2 = 1, marginally stable) and PI integrators, whose states need
  *   saturation and anti-windup.
  * - `headroomBits`: max(0, ceil(log2(l1))) integer bits the output needs beyond the W-bit word
- *   for a full-scale input; null when unbounded.
+ *   for a full-scale input; null when unbounded. In Direct Form I the states are the two past
+ *   inputs (within the word by construction) and the two past outputs, so the output norm is also
+ *   the state norm.
  * - `deadbandLsb`, recursive sections other than PI: 0.5 * l1 norm of 1/Aq(z), in output LSB.
  *   The DF-I output y = v + e carries one rounding error |e| <= 0.5 LSB per sample and e reaches
  *   the output through 1/A(z), so the output can sit up to that far off the exact-arithmetic
