@@ -252,6 +252,8 @@ export function presentBundle(design: DesignInput, analysis: AnalysisResult, met
   const voltageBaseV = Math.SQRT2 * design.grid.voltageRmsV;
   const currentBaseA = (Math.SQRT2 * design.rating.apparentPowerVA) / design.grid.voltageRmsV;
   const blocks = analysis.blocks.filter((b) => b.sections.length > 0);
+  const reactiveGain = analysis.blocks.find((b) => b.id === 'reactive-lpf')?.gains.reactiveEstimateFactor;
+  const reactiveFactor = typeof reactiveGain === 'number' ? reactiveGain : REACTIVE_ESTIMATE_FACTOR;
   const blockIndex = new Map(blocks.map((b, i) => [b.id, i]));
   const checks = [...analysis.checks].sort((p, q) => ['error', 'warning', 'info'].indexOf(p.severity) - ['error', 'warning', 'info'].indexOf(q.severity) || (p.id < q.id ? -1 : p.id > q.id ? 1 : 0));
   const count = (s: string): number => analysis.checks.filter((x) => x.severity === s).length;
@@ -299,7 +301,7 @@ export function presentBundle(design: DesignInput, analysis: AnalysisResult, met
       { macro: `${c.macro}_SCALE_CURRENT_BASE_A`, value: cDouble(currentBaseA), unit: 'A', meaning: 'per-unit current base: rated current amplitude sqrt(2) * S / Vrms' },
       { macro: `${c.macro}_SCALE_IMPEDANCE_BASE_OHM`, value: cDouble(voltageBaseV / currentBaseA), unit: 'ohm', meaning: 'per-unit impedance base: voltage base / current base' },
       { macro: `${c.macro}_SCALE_DC_VOLTAGE_BASE_V`, value: cDouble(design.dcLink.voltageRefV), unit: 'V', meaning: 'DC-link voltage reference (base of the DC-link per-unit)' },
-      { macro: `${c.macro}_SCALE_REACTIVE_FACTOR`, value: cDouble(REACTIVE_ESTIMATE_FACTOR), unit: '1', meaning: 'reactive estimate q = factor * low-pass(v_q * i)' },
+      { macro: `${c.macro}_SCALE_REACTIVE_FACTOR`, value: cDouble(reactiveFactor), unit: '1', meaning: 'reactive estimate q = factor * low-pass(v_q * i)' },
       { macro: `${c.macro}_SCALE_FEEDFORWARD`, value: cDouble(voltageBaseV / design.dcLink.voltageRefV), unit: '1', meaning: 'grid-voltage feed-forward: per-unit grid voltage to modulation index (voltage base / DC-link reference)' },
     ],
     blocks: blocks.map((block) => ({
