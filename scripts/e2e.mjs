@@ -251,7 +251,7 @@ async function main() {
       expect(designId !== null, 'no design');
       const page = pages.engineer;
       await page.goto(`${origin}/designs/${designId}`);
-      const crossover = page.locator('[data-path="currentLoop.crossoverHz"] input').first();
+      const crossover = page.locator('[data-path="currentLoop.crossoverHz"] input, input[data-path="currentLoop.crossoverHz"]').first();
       await crossover.waitFor({ timeout: 15_000 });
       await crossover.fill('800');
       await page.waitForTimeout(400);
