@@ -22,6 +22,8 @@ interface RefLoop {
 interface RefCase {
   design: DesignInput;
   sampleTimeS: number;
+  timeSamples: number;
+  time: Record<'current-step' | 'pll-phase-step' | 'dc-link-load-step', number[]>;
   sections: Record<string, { b: number[]; a: number[] }[]>;
   loops: Record<LoopId, RefLoop>;
 }
@@ -67,6 +69,19 @@ describe(`analyzeDesign against ${fixture.generator}`, () => {
         const nearest = Math.min(...got.closedLoopPoles.map(([r, i]) => Math.hypot(r - re, i - im)));
         expect(nearest, `${id} pole ${re}${im >= 0 ? '+' : ''}${im}j`).toBeLessThan(2e-5);
       }
+    }
+  });
+
+  // Step responses against scipy.signal.dlsim of the same closed loops (fixture header names the version).
+  it.each(cases)('%s: current, PLL and DC-link step responses match scipy.signal.dlsim', (_name, ref) => {
+    const result = analyzeDesign(ref.design, { sweepPoints: 50, responseSamples: ref.timeSamples });
+    for (const key of ['current-step', 'pll-phase-step', 'dc-link-load-step'] as const) {
+      const got = result.responses?.time[key];
+      const want = ref.time[key];
+      expect(got, key).toBeDefined();
+      const scale = Math.max(...want.map(Math.abs));
+      expectClose(got?.value ?? [], want, { atol: 1e-9 * scale }, key);
+      expectClose(got?.timeS ?? [], want.map((_, i) => i * ref.sampleTimeS), { rtol: 1e-12, atol: 1e-15 }, `${key} time`);
     }
   });
 });
