@@ -66,6 +66,9 @@ describe.sequential('team walk', () => {
     expect(stale.body.error.code).toBe('stale-version');
     expect(stale.body.error.details.currentVersion).toBe(s.version + 1);
     s.version += 1;
+    // Nothing half-written: the refused save left no audit entry and no content change.
+    const saves = await api().get(`/api/admin/audit?action=design.save&targetId=${s.designId}`).set('Authorization', bearer(t.admin));
+    expect(saves.body).toHaveLength(1);
     const now = await api().get(`/api/designs/${s.designId}`).set('Authorization', bearer(t.engineer));
     expect(now.body.design.reactiveFilter.cutoffHz).toBe(8);
     expect(now.body.version).toBe(s.version);
@@ -136,6 +139,10 @@ describe.sequential('team walk', () => {
     s.sha = res.body.sha256;
     const dup = await api().post(`/api/revisions/${s.rev1}/release`).set('Authorization', bearer(t.admin)).send({ version: '1.0.0' });
     expect(dup.status).toBe(409);
+    expect(dup.body.error.code).toBe('not-approved'); // a released revision is never released again
+    const created = await api().get('/api/admin/audit?action=release.create').set('Authorization', bearer(t.admin));
+    expect(created.body.filter((e: { targetId: number }) => e.targetId === s.releaseId)).toHaveLength(1);
+    expect((await api().get('/api/releases?design=Walk%20unit').set('Authorization', bearer(t.tester))).body).toHaveLength(1);
     expect((await api().get(`/api/revisions/${s.rev1}`).set('Authorization', bearer(t.engineer))).body.status).toBe('released');
   });
 
@@ -226,6 +233,13 @@ describe.sequential('team walk', () => {
     const r3 = await api().post(`/api/designs/${s.designId}/revisions`).set('Authorization', bearer(t.engineer)).send({ summary: 'Same again' });
     expect(r3.body.number).toBe(3);
     expect((await api().get(`/api/revisions/${s.rev2}`).set('Authorization', bearer(t.reviewer))).body.status).toBe('superseded');
+    // Approved, but 1.0.0 is taken for this design: refused, and nothing is written.
+    expect((await api().post(`/api/revisions/${r3.body.id}/reviews`).set('Authorization', bearer(t.reviewer)).send({ decision: 'approve' })).status).toBe(201);
+    const dup = await api().post(`/api/revisions/${r3.body.id}/release`).set('Authorization', bearer(t.engineer)).send({ version: '1.0.0' });
+    expect(dup.status).toBe(409);
+    expect(dup.body.error.code).toBe('version-taken');
+    expect((await api().get(`/api/revisions/${r3.body.id}`).set('Authorization', bearer(t.reviewer))).body.status).toBe('approved');
+    expect((await api().get('/api/releases?design=Walk%20unit').set('Authorization', bearer(t.tester))).body).toHaveLength(1);
   });
 
   it('the local SMTP server captured the notifications', async () => {
