@@ -130,7 +130,7 @@ export function filterAdmittanceStateSpace(filter: FilterInput): StateSpace {
  * @returns current (ZOH plant, delay d), voltage (Kv Ts/(z - 1)), pll (Ts/(z - 1)).
  * @throws ControlError `invalid-argument` naming the bad field.
  * @example
- * buildLoops(inputs).voltage.plant.b; // => [Kv * Ts]
+ * buildLoops({ ...inputs, samplePeriodS: 1e-4, voltagePlantGain: 200 }).voltage.plant.b; // => [0.02]
  */
 export function buildLoops(inputs: LoopInputs): Record<LoopId, SampledLoop> {
   const Ts = inputs.samplePeriodS;
@@ -185,7 +185,8 @@ function controllerStateSpace(sections: readonly SectionCoefficients[]): { a: Ma
  * @param loop - the loop (plant D must be 0).
  * @returns the square closed-loop matrix (size n_plant + d + controller states).
  * @example
- * closedLoopMatrix({ sections: [{ b: [0.5, 0, 0], a: [1, 0, 0] }], delaySamples: 0, plant: integrator }); // => [[0.5]]
+ * const plant = { a: [[1]], b: [1], c: [1], d: 0, timebase: { kind: 'discrete', samplePeriodS: 1 } } as const;
+ * closedLoopMatrix({ sections: [{ b: [0.5, 0, 0], a: [1, 0, 0] }], delaySamples: 0, plant }); // => [[0.5]]
  */
 export function closedLoopMatrix(loop: SampledLoop): Matrix {
   const ctrl = controllerStateSpace(loop.sections);
@@ -289,7 +290,8 @@ function loopFocus(loop: SampledLoop): FrequencyFocus[] {
  * @param loop - the loop.
  * @returns poles and zeros as [re, im].
  * @example
- * loopPoleZero(loop).poles.length; // => controller states + d + plant states
+ * const plant = { a: [[1]], b: [1], c: [1], d: 0, timebase: { kind: 'discrete', samplePeriodS: 1 } } as const;
+ * loopPoleZero({ sections: [{ b: [0.6, -0.4, 0], a: [1, -1, 0] }], delaySamples: 1, plant }); // => poles [[1, 0], [0, 0], [1, 0]], zeros [[0.6667, 0]]
  */
 export function loopPoleZero(loop: SampledLoop): PoleZeroMap {
   const ctrl = controllerStateSpace(loop.sections);

@@ -116,8 +116,8 @@ function golden(f: (w: number) => number, lo: number, hi: number): number {
  * @returns the margins; null values carry a sentence in `notes`.
  * @throws ControlError `invalid-argument` for a bad period.
  * @example
- * // integrator loop 0.1 Ts/(z-1)... crossover near 0.1/(2 pi) Hz
- * loopMargins((w) => { const z = { re: Math.cos(w), im: Math.sin(w) }; ... }, 1, []);
+ * // L = 0.5 / (e^{jw} - 1), Ts = 1 s: |L| = 1 where 2 sin(w/2) = 0.5, phase margin 90 - w/2 in degrees
+ * loopMargins((w) => { const dr = Math.cos(w) - 1, di = Math.sin(w), m = dr * dr + di * di; return { re: (0.5 * dr) / m, im: (-0.5 * di) / m }; }, 1, []).phaseMarginDeg; // => 75.52...
  */
 export function loopMargins(evaluate: (omegaRadPerS: number) => Complex, samplePeriodS: number, focus: readonly FrequencyFocus[]): MarginResult {
   if (!(samplePeriodS > 0) || !Number.isFinite(samplePeriodS)) throw new ControlError('invalid-argument', 'samplePeriodS must be a finite number > 0');

@@ -68,7 +68,7 @@ export function commonTimebase(a: Timebase, b: Timebase): Timebase {
  * @returns the product.
  * @throws TimebaseMismatchError when the timebases differ.
  * @example
- * series(tf([1], [1, 0]), tf([2], [1, 1])); // => 2 / (s^2 + s)
+ * series(transferFunction([1], [1, 0], c), transferFunction([2], [1, 1], c)); // => num [0, 0, 2], den [1, 1, 0]  (c = { kind: 'continuous' })
  */
 export function series(g1: TransferFunction, g2: TransferFunction): TransferFunction {
   const tb = commonTimebase(g1.timebase, g2.timebase);
@@ -83,7 +83,7 @@ export function series(g1: TransferFunction, g2: TransferFunction): TransferFunc
  * @returns the sum.
  * @throws TimebaseMismatchError when the timebases differ.
  * @example
- * parallel(tf([1], [1]), tf([1], [1, 0])); // => (s + 1) / s
+ * parallel(transferFunction([1], [1], c), transferFunction([1], [1, 0], c)); // => num [1, 1], den [1, 0]
  */
 export function parallel(g1: TransferFunction, g2: TransferFunction): TransferFunction {
   const tb = commonTimebase(g1.timebase, g2.timebase);
@@ -95,7 +95,7 @@ export function parallel(g1: TransferFunction, g2: TransferFunction): TransferFu
  * @param g - open loop.
  * @returns the closed loop.
  * @example
- * unityFeedback(tf([1], [1, 0])); // => 1 / (s + 1)
+ * unityFeedback(transferFunction([1], [1, 0], c)); // => num [0, 1], den [1, 1]
  */
 export function unityFeedback(g: TransferFunction): TransferFunction {
   return transferFunction(g.num, polyAdd(g.den, g.num), g.timebase);
@@ -108,7 +108,7 @@ export function unityFeedback(g: TransferFunction): TransferFunction {
  * @param im - imaginary part of the point.
  * @returns H(point); non-finite parts at a pole.
  * @example
- * evaluateTf(tf([1], [1, 1]), 0, 0); // => { re: 1, im: 0 }
+ * evaluateTf(transferFunction([1], [1, 1], c), 0, 0); // => { re: 1, im: 0 }
  */
 export function evaluateTf(g: TransferFunction, re: number, im: number): Complex {
   const n = polyvalComplex(g.num, re, im);
@@ -125,7 +125,7 @@ export function evaluateTf(g: TransferFunction, re: number, im: number): Complex
  * @param g - proper transfer function.
  * @returns { a, b, c, d, timebase }.
  * @example
- * tfToSs(tf([1], [1, 2])); // => { a: [[-2]], b: [1], c: [1], d: 0, ... }
+ * tfToSs(transferFunction([1], [1, 2], c)); // => { a: [[-2]], b: [1], c: [1], d: 0, timebase: c }
  */
 export function tfToSs(g: TransferFunction): StateSpace {
   const lead = g.den[0];
