@@ -23,6 +23,7 @@ interface RefCase {
   design: DesignInput;
   sampleTimeS: number;
   timeSamples: number;
+  openLoop: Record<LoopId, { frequencyHz: number[]; magnitudeDb: number[]; phaseDegWrapped: number[] }>;
   time: Record<'current-step' | 'pll-phase-step' | 'dc-link-load-step', number[]>;
   sections: Record<string, { b: number[]; a: number[] }[]>;
   loops: Record<LoopId, RefLoop>;
@@ -82,6 +83,24 @@ describe(`analyzeDesign against ${fixture.generator}`, () => {
       const scale = Math.max(...want.map(Math.abs));
       expectClose(got?.value ?? [], want, { atol: 1e-9 * scale }, key);
       expectClose(got?.timeS ?? [], want.map((_, i) => i * ref.sampleTimeS), { rtol: 1e-12, atol: 1e-15 }, `${key} time`);
+    }
+  });
+
+  // Open-loop sweeps on the plot grid against the same loops evaluated by numpy on np.geomspace.
+  it.each(cases)('%s: open-loop Bode data of the three loops match numpy', (_name, ref) => {
+    const points = ref.openLoop.current.frequencyHz.length;
+    const result = analyzeDesign(ref.design, { sweepPoints: points, responseSamples: 10 });
+    for (const id of loopIds) {
+      const got = result.responses?.openLoop[id];
+      const want = ref.openLoop[id];
+      expect(got, id).toBeDefined();
+      expectClose(got?.frequencyHz ?? [], want.frequencyHz, { rtol: 1e-12 }, `${id} f`);
+      expectClose(got?.magnitudeDb ?? [], want.magnitudeDb, { atol: 1e-7 }, `${id} |L| dB`);
+      // The plot phase is unwrapped: equal to numpy's wrapped phase modulo 360 degrees.
+      const wrapDiff = (got?.phaseDeg ?? []).map((p, i) => { const d = (((p - want.phaseDegWrapped[i]) % 360) + 540) % 360 - 180; return d; });
+      expectClose(wrapDiff, want.phaseDegWrapped.map(() => 0), { atol: 1e-7 }, `${id} phase mod 360`);
+      const steps = (got?.phaseDeg ?? []).slice(1).map((p, i) => Math.abs(p - (got?.phaseDeg ?? [])[i]));
+      expect(Math.max(...steps), `${id} unwrapped`).toBeLessThan(180);
     }
   });
 });
