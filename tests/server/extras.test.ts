@@ -88,13 +88,29 @@ describe('drafts, headers and withdrawal', () => {
   });
 });
 
+describe('release gate', () => {
+  it('refuses releasing an approved revision that has an error check (422 naming the checks)', async () => {
+    const d = await api().post('/api/designs').set('Authorization', bearer(t.engineer)).send({ design: buildDesign({ name: 'Narrow word unit', fixedPoint: { wordBits: 16 } }) });
+    const r = await api().post(`/api/designs/${d.body.id}/revisions`).set('Authorization', bearer(t.engineer)).send({ summary: '16-bit words' });
+    const errors = r.body.analysis.checks.filter((c: { severity: string }) => c.severity === 'error').map((c: { id: string }) => c.id);
+    expect(errors.length).toBeGreaterThan(0);
+    expect(r.body.errorCount).toBe(errors.length);
+    expect((await api().post(`/api/revisions/${r.body.id}/reviews`).set('Authorization', bearer(t.reviewer)).send({ decision: 'approve' })).status).toBe(201);
+    const rel = await api().post(`/api/revisions/${r.body.id}/release`).set('Authorization', bearer(t.engineer)).send({ version: '1.0.0' });
+    expect(rel.status).toBe(422);
+    expect(rel.body.error.code).toBe('error-checks');
+    expect(rel.body.error.details.checks).toEqual(errors);
+    expect((await api().get(`/api/revisions/${r.body.id}`).set('Authorization', bearer(t.engineer))).body.status).toBe('approved');
+  });
+});
+
 const examples = (() => { try { return readdirSync('examples').filter((f) => f.endsWith('.json')); } catch { return []; } })();
 
 describe.skipIf(examples.length < 3)('demo history', () => {
   it('seeds one released set, one revision in review and one sent back with comments', async () => {
     const listed = await api().get('/api/designs').set('Authorization', bearer(t.engineer));
-    // Only the seeded designs (the tests above add "Draft unit").
-    const designs = { body: listed.body.filter((d: { name: string }) => d.name !== 'Draft unit') };
+    // Only the seeded designs (the tests above add two).
+    const designs = { body: listed.body.filter((d: { name: string }) => !['Draft unit', 'Narrow word unit'].includes(d.name)) };
     expect(designs.body).toHaveLength(examples.length);
     const statuses = designs.body.map((d: { latestRevision: { status: string } | null }) => d.latestRevision?.status).filter(Boolean).sort();
     expect(statuses).toEqual(expect.arrayContaining(['changes-requested', 'in-review', 'released']));
