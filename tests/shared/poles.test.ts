@@ -1,9 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { analyzeLoops, buildLoops, characteristicPolynomial, closedLoopMatrix, ControlError, eigenvalues, expm, loopPoleZero, roots, type LoopInputs } from '../../shared/control/index';
+import { analyzeLoops, buildLoops, characteristicPolynomial, closedLoopMatrix, ControlError, eigenvalues, expm, loopPoleZero, polyAdd, polyMul, roots, ssToTf, type LoopInputs } from '../../shared/control/index';
 import { expectClose, sortComplex } from '../helpers/expectClose';
 
-interface FixtureCase { name: string; inputs: LoopInputs; loops: Record<'current' | 'voltage' | 'pll', { closedLoopPoles: [number, number][]; maxPoleRadius: number }> }
+interface FixtureCase {
+  name: string; inputs: LoopInputs; loops: Record<'current' | 'voltage' | 'pll', { closedLoopPoles: [number, number][]; maxPoleRadius: number }>;
+  expandedPolynomial?: { order: number; maxRootRadius: number };
+}
 const fixture = JSON.parse(readFileSync(new URL('../fixtures/scipy/loops.json', import.meta.url), 'utf8')) as { generator: string; cases: FixtureCase[] };
 
 function expectSameRoots(actual: readonly (readonly [number, number])[], expected: readonly (readonly [number, number])[], atol: number, label: string): void {
@@ -40,6 +43,26 @@ describe(`closed-loop poles vs numpy.linalg.eigvals of an independently assemble
     const current = analyzeLoops(c.inputs, { sweepPoints: 0, responseSamples: 0 }).loops[0];
     expect(current.maxPoleRadius).toBeGreaterThan(1);
     expect(current.stable).toBe(false);
+  });
+});
+
+describe('parallel sections vs one expanded polynomial', () => {
+  const c = fixture.cases.find((x) => x.expandedPolynomial) as FixtureCase;
+  it(`${c.name}: numpy.roots of the order-${c.expandedPolynomial?.order} polynomial reports a spurious unstable root, the sections do not`, () => {
+    const expanded = c.expandedPolynomial as { order: number; maxRootRadius: number };
+    // numpy 2.4: roots of the expanded characteristic polynomial vs eigvals of the state space with sections
+    expect(expanded.maxRootRadius).toBeGreaterThan(1.1);
+    expect(c.loops.current.maxPoleRadius).toBeLessThan(1);
+    const loop = analyzeLoops(c.inputs, { sweepPoints: 0, responseSamples: 0 }).loops[0];
+    expectClose(loop.maxPoleRadius, c.loops.current.maxPoleRadius, { atol: 1e-10 }, 'max radius');
+    expect(loop.stable).toBe(true);
+    // the same expansion in this code base's own polynomial tools fails the same way
+    let cn = [0];
+    let cd = [1];
+    for (const s of c.inputs.currentController) { cn = polyAdd(polyMul(cn, s.a), polyMul(s.b, cd)); cd = polyMul(cd, s.a); }
+    const plant = ssToTf(buildLoops(c.inputs).current.plant);
+    const charPoly = polyAdd(polyMul(polyMul(cd, [1, 0]), plant.den), polyMul(cn, plant.num));
+    expect(Math.max(...roots(charPoly).map(([re, im]) => Math.hypot(re, im)))).toBeGreaterThan(1.05);
   });
 });
 
