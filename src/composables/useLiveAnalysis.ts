@@ -1,6 +1,6 @@
 // Live analysis while the user types: debounced, run in a Web Worker when the browser has one
 // (directly otherwise, e.g. in component tests), stale answers dropped.
-import { onBeforeUnmount, ref, watch, type Ref } from 'vue';
+import { inject, onBeforeUnmount, ref, watch, type InjectionKey, type Ref } from 'vue';
 import type { AnalysisOptions, AnalysisResult, DesignInput } from '../../shared/control';
 import type { AnalysisReply, AnalysisRequest } from '../workers/analysisProtocol';
 
@@ -12,6 +12,9 @@ export const LIVE_ANALYSIS_DEBOUNCE_MS = 150;
 
 /** Runs one request somewhere and answers it. */
 export type AnalysisRunner = (request: AnalysisRequest) => Promise<AnalysisReply>;
+
+/** Lets an app (or a test) provide where analyses run; default: a Web Worker, else the main thread. */
+export const ANALYSIS_RUNNER_KEY: InjectionKey<AnalysisRunner> = Symbol('varsmith.analysisRunner');
 
 function workerRunner(): { run: AnalysisRunner; dispose: () => void } | null {
   if (typeof Worker === 'undefined') return null;
@@ -70,8 +73,9 @@ export function useLiveAnalysis(design: Ref<DesignInput | null>, options: { debo
   const running = ref(false);
   const elapsedMs = ref<number | null>(null);
   const current = ref(false);
-  const worker = options.runner ? null : workerRunner();
-  const run = options.runner ?? worker?.run ?? directRunner;
+  const provided = options.runner ?? inject(ANALYSIS_RUNNER_KEY, null);
+  const worker = provided ? null : workerRunner();
+  const run = provided ?? worker?.run ?? directRunner;
   const debounceMs = options.debounceMs ?? LIVE_ANALYSIS_DEBOUNCE_MS;
   let timer: ReturnType<typeof setTimeout> | null = null;
   let lastId = 0;

@@ -2,6 +2,7 @@
 import { flushPromises } from '@vue/test-utils';
 import { createMemoryHistory } from 'vue-router';
 import { buildApp, type VarsmithApp } from '../../src/boot/app';
+import { ANALYSIS_RUNNER_KEY, type AnalysisRunner } from '../../src/composables/useLiveAnalysis';
 
 /** A mounted app and its root element. */
 export interface MountedApp extends VarsmithApp {
@@ -12,10 +13,12 @@ export interface MountedApp extends VarsmithApp {
 /**
  * Builds and mounts the app at `path`, waiting for the first navigation and lazy pages.
  * @param path - initial address.
+ * @param options - `analysisRunner` replaces where the live analysis runs.
  * @returns the mounted app.
  */
-export async function mountApp(path: string): Promise<MountedApp> {
+export async function mountApp(path: string, options: { analysisRunner?: AnalysisRunner } = {}): Promise<MountedApp> {
   const parts = buildApp(createMemoryHistory());
+  if (options.analysisRunner) parts.app.provide(ANALYSIS_RUNNER_KEY, options.analysisRunner);
   const root = document.createElement('div');
   document.body.appendChild(root);
   await parts.router.push(path);
@@ -41,7 +44,7 @@ export async function settle(rounds = 6): Promise<void> {
  * @param condition - what to wait for.
  * @param timeoutMs - give up after this long.
  */
-export async function waitFor(condition: () => boolean, timeoutMs = 3000): Promise<void> {
+export async function waitFor(condition: () => boolean, timeoutMs = 10000): Promise<void> {
   const start = Date.now();
   while (!condition()) {
     if (Date.now() - start > timeoutMs) throw new Error('waitFor: condition not met in time');

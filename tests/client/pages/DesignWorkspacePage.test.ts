@@ -9,6 +9,11 @@ import { signInAs } from '../session';
 import { buildDesignDetail } from '../fixtures';
 import { useDesignStore } from '../../../src/stores/design';
 import { expectClose } from '../../helpers/expectClose';
+import { buildAnalysis } from '../analysisFixture';
+import type { AnalysisRunner } from '../../../src/composables/useLiveAnalysis';
+
+// Form behaviour is checked with a quick canned analysis; one test below runs the real core.
+const cannedRunner: AnalysisRunner = async (request) => ({ id: request.id, ok: true, result: buildAnalysis(), elapsedMs: 0 });
 
 function field(path: string): HTMLInputElement {
   const input = document.querySelector<HTMLInputElement>(`[data-path="${path}"] input, input[data-path="${path}"]`);
@@ -31,12 +36,13 @@ function fieldError(path: string): string {
 async function openBench(detail = buildDesignDetail()) {
   signInAs('engineer');
   server.use(http.get('*/api/designs/7', () => HttpResponse.json(detail)));
-  const mounted = await mountApp('/designs/7');
+  const mounted = await mountApp('/designs/7', { analysisRunner: cannedRunner });
   await waitFor(() => document.querySelector('[data-path="filter.inductanceH"]') !== null);
   return mounted;
 }
 
-describe('DesignWorkspacePage', () => {
+// Mounting the whole bench in happy-dom takes about a second per test.
+describe('DesignWorkspacePage', { timeout: 30000 }, () => {
   it('shows the working copy in engineering units', async () => {
     await openBench();
     expect(field('filter.inductanceH').value).toBe('0.6');
@@ -109,7 +115,7 @@ describe('DesignWorkspacePage', () => {
       http.get('*/api/designs/7', () => { gets += 1; return HttpResponse.json(gets === 1 ? buildDesignDetail() : theirs); }),
       http.put('*/api/designs/7', () => HttpResponse.json({ error: { code: 'stale-version', message: 'Someone saved in between' } }, { status: 409 })),
     );
-    await mountApp('/designs/7');
+    await mountApp('/designs/7', { analysisRunner: cannedRunner });
     await waitFor(() => document.querySelector('[data-path="filter.inductanceH"]') !== null);
     await typeInto('filter.inductanceH', '0.7');
     (document.querySelector('[data-test="save"]') as HTMLElement).click();
@@ -155,7 +161,19 @@ describe('DesignWorkspacePage', () => {
   it('says when the design does not exist', async () => {
     signInAs('engineer');
     server.use(http.get('*/api/designs/404', () => HttpResponse.json({ error: { code: 'not-found', message: 'No design 404' } }, { status: 404 })));
-    await mountApp('/designs/404');
+    await mountApp('/designs/404', { analysisRunner: cannedRunner });
     await waitFor(() => (document.body.textContent ?? '').includes('This design does not exist.'));
   });
+
+  it('runs the real core live and shows the designed kp greyed in the blank override', async () => {
+    signInAs('engineer');
+    server.use(http.get('*/api/designs/7', () => HttpResponse.json(buildDesignDetail())));
+    await mountApp('/designs/7');
+    await waitFor(() => document.querySelector('[data-test="findings"]') !== null, 60000);
+    // CONTRACT section 2 rule: kp = 2*pi*crossoverHz*L = 2*pi*1000*0.6e-3 = 3.769911... V/A.
+    const placeholder = field('currentLoop.kp').getAttribute('placeholder') ?? '';
+    expectClose(Number.parseFloat(placeholder), 2 * Math.PI * 1000 * 0.6e-3, { rtol: 1e-5 });
+    expect(placeholder).toContain('(designed)');
+    expect(document.querySelector('[data-test="loop-table"]')?.textContent).toContain('Current (PR)');
+  }, 90000);
 });
