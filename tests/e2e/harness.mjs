@@ -252,14 +252,15 @@ export async function measureKeystrokeToPlots(page, selector, rounds = 12) {
     await page.waitForTimeout(250);
   }
   const sorted = [...samples].sort((x, y) => x - y);
-  const pick = (q) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] : null);
+  const round = (v) => (v === null || v === undefined ? null : Math.round(v * 10) / 10);
+  const pick = (q) => (sorted.length ? round(sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)]) : null);
   return {
     samplesMs: samples.map((s) => Math.round(s * 10) / 10),
     missed: rounds - samples.length,
     medianMs: pick(0.5),
     p95Ms: pick(0.95),
-    minMs: sorted[0] ?? null,
-    maxMs: sorted[sorted.length - 1] ?? null,
+    minMs: round(sorted[0]),
+    maxMs: round(sorted[sorted.length - 1]),
     // What the workspace reports for the analysis run itself ("analysed in X ms"), for the split.
     analysisMedianMs: analysisSamples.length ? [...analysisSamples].sort((x, y) => x - y)[Math.ceil(analysisSamples.length / 2) - 1] : null,
   };
