@@ -21,9 +21,9 @@ const inputs: LoopInputs = {
   pllController: pi(153, 11760),
 };
 
-function stats(times: number[]): { medianMs: number; p95Ms: number } {
+function stats(times: number[]): { medianMs: number; p95Ms: number; minMs: number } {
   const s = times.slice().sort((a, b) => a - b);
-  return { medianMs: Number(s[Math.floor(s.length / 2)].toFixed(3)), p95Ms: Number(s[Math.floor(s.length * 0.95)].toFixed(3)) };
+  return { medianMs: Number(s[Math.floor(s.length / 2)].toFixed(3)), p95Ms: Number(s[Math.floor(s.length * 0.95)].toFixed(3)), minMs: Number(s[0].toFixed(3)) };
 }
 
 function time(options: { sweepPoints: number; responseSamples: number }, runs: number): number[] {

@@ -52,21 +52,29 @@ export function marginGrid(samplePeriodS: number, focus: readonly FrequencyFocus
   const logW0 = Math.log(wN) - GRID_DECADES * Math.LN10;
   const step = (GRID_DECADES * Math.LN10) / (GRID_POINTS - 1);
   const valid = focus.filter((f) => f.centerRadPerS > 0 && f.halfWidthRadPerS > 0 && Number.isFinite(f.centerRadPerS) && Number.isFinite(f.halfWidthRadPerS));
-  const all = new Float64Array(GRID_POINTS + 2 * FOCUS_POINTS * valid.length);
+  const extra = new Float64Array(2 * FOCUS_POINTS * valid.length);
   let k = 0;
-  for (let i = 0; i < GRID_POINTS; i++) all[k++] = Math.exp(logW0 + i * step);
   const gStep = (6 * Math.LN10) / (FOCUS_POINTS - 1);
   for (const f of valid) {
     for (let i = 0; i < FOCUS_POINTS; i++) {
       const off = f.halfWidthRadPerS * Math.exp(-3 * Math.LN10 + i * gStep);
-      all[k++] = f.centerRadPerS - off;
-      all[k++] = f.centerRadPerS + off;
+      extra[k++] = f.centerRadPerS - off;
+      extra[k++] = f.centerRadPerS + off;
     }
   }
-  all.sort();
+  extra.sort();
+  // merge the ascending base grid with the sorted focus points, dropping duplicates and w outside (0, wN)
   const out: number[] = [];
-  for (let i = 0; i < all.length; i++) {
-    const w = all[i];
+  let i = 0;
+  let j = 0;
+  let base = Math.exp(logW0);
+  while (i < GRID_POINTS || j < extra.length) {
+    let w: number;
+    if (j >= extra.length || (i < GRID_POINTS && base <= extra[j])) {
+      w = base;
+      i++;
+      base = Math.exp(logW0 + i * step);
+    } else w = extra[j++];
     if (!(w > 0) || w >= wN) continue;
     if (out.length === 0 || w > out[out.length - 1] * (1 + 1e-13)) out.push(w);
   }
