@@ -13,7 +13,7 @@ export function installQuasar(app: App): void {
     iconSet,
     config: {
       brand: { primary: '#1e2a3a', secondary: '#c27a4a', accent: '#e8b84a' },
-      notify: { position: 'bottom-right', timeout: 4000 },
+      notify: { position: 'top-right', timeout: 4000 },
     },
   });
 }
