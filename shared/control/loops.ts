@@ -321,12 +321,23 @@ export function loopPoleZero(loop: SampledLoop): PoleZeroMap {
 
 const DIVERGENCE_LIMIT = 1e12;
 
-function timeResponse(loop: SampledLoop, samples: number, reference: number, disturbance: number, record: 'output' | 'error', label: string, notes: string[]): TimeResponseData {
+// Horizon of a plotted step response: about six periods of the loop's crossover, so slow loops
+// (DC link near 10 Hz, PLL) are shown settling; simulated every sample, recorded every `stride`.
+const RESPONSE_CROSSOVER_PERIODS = 6;
+const MAX_SIMULATED_SAMPLES = 400000;
+
+function responseStride(samples: number, samplePeriodS: number, crossoverHz: number | null): number {
+  if (crossoverHz === null || !(crossoverHz > 0)) return 1;
+  const wanted = Math.ceil(RESPONSE_CROSSOVER_PERIODS / crossoverHz / (samples * samplePeriodS));
+  return Math.max(1, Math.min(wanted, Math.floor(MAX_SIMULATED_SAMPLES / samples)));
+}
+
+function timeResponse(loop: SampledLoop, samples: number, stride: number, reference: number, disturbance: number, record: 'output' | 'error', label: string, notes: string[]): TimeResponseData {
   const Ts = (loop.plant.timebase as { samplePeriodS: number }).samplePeriodS;
-  const y = simulateLoop(loop.sections, loop.delaySamples, loop.plant, { reference, inputDisturbance: disturbance }, samples, record);
+  const y = simulateLoop(loop.sections, loop.delaySamples, loop.plant, { reference, inputDisturbance: disturbance }, samples * stride, record);
   const timeS: number[] = [];
   const value: number[] = [];
-  for (let i = 0; i < samples; i++) {
+  for (let i = 0; i < samples * stride; i += stride) {
     const v = y[i];
     if (!Number.isFinite(v) || Math.abs(v) > DIVERGENCE_LIMIT) {
       notes.push(`${label}: the response diverges; truncated after ${i} samples (|value| exceeds ${DIVERGENCE_LIMIT}).`);
@@ -411,9 +422,9 @@ export function analyzeLoops(inputs: LoopInputs, options: AnalysisOptions): Loop
   };
   const poleZero = sweepPoints === 0 ? null : { current: loopPoleZero(built.current), voltage: loopPoleZero(built.voltage), pll: loopPoleZero(built.pll) };
   const time = responseSamples === 0 ? null : {
-    'current-step': timeResponse(built.current, responseSamples, 1, 0, 'output', 'inverter current (A) for a 1 A reference step', notesOf('current')),
-    'pll-phase-step': timeResponse(built.pll, responseSamples, 1, 0, 'error', 'PLL phase error (rad) after a 1 rad grid phase step (linearized loop)', notesOf('pll')),
-    'dc-link-load-step': timeResponse(built.voltage, responseSamples, 0, -1, 'output', 'DC-link voltage deviation (V) after a 1 A load-current step', notesOf('voltage')),
+    'current-step': timeResponse(built.current, responseSamples, 1, 1, 0, 'output', 'inverter current (A) for a 1 A reference step', notesOf('current')),
+    'pll-phase-step': timeResponse(built.pll, responseSamples, responseStride(responseSamples, Ts, loops[ids.indexOf('pll')].crossoverHz), 1, 0, 'error', 'PLL phase error (rad) after a 1 rad grid phase step (linearized loop)', notesOf('pll')),
+    'dc-link-load-step': timeResponse(built.voltage, responseSamples, responseStride(responseSamples, Ts, loops[ids.indexOf('voltage')].crossoverHz), 0, -1, 'output', 'DC-link voltage deviation (V) after a 1 A load-current step', notesOf('voltage')),
   };
   return { loops, openLoop, poleZero, time };
 }

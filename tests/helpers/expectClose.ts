@@ -28,3 +28,18 @@ export function expectClose(actual: number | readonly number[], expected: number
 export function sortComplex(values: readonly (readonly [number, number])[]): [number, number][] {
   return values.map((v) => [v[0], v[1]] as [number, number]).sort((p, q) => p[0] - q[0] || p[1] - q[1]);
 }
+
+/**
+ * Pairs a plotted response (recorded every `stride` samples over a longer horizon) with a per-sample
+ * reference: keeps the recorded points whose sample index k = t/Ts lies inside the reference.
+ */
+export function atReferenceSamples(got: { timeS: readonly number[]; value: readonly number[] }, reference: readonly number[], samplePeriodS: number): { got: number[]; want: number[]; indices: number[] } {
+  const out = { got: [] as number[], want: [] as number[], indices: [] as number[] };
+  got.timeS.forEach((t, i) => {
+    const k = Math.round(t / samplePeriodS);
+    expect(Math.abs(t / samplePeriodS - k), `time ${t} is not on the sample grid`).toBeLessThan(1e-6);
+    if (k < reference.length) { out.got.push(got.value[i]); out.want.push(reference[k]); out.indices.push(k); }
+  });
+  expect(out.got.length, 'recorded points inside the reference').toBeGreaterThan(1);
+  return out;
+}

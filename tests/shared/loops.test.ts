@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { analyzeLoops, ControlError, filterAdmittanceStateSpace, ssToTf, zohStateSpace, type LoopInputs } from '../../shared/control/index';
-import { expectClose } from '../helpers/expectClose';
+import { atReferenceSamples, expectClose } from '../helpers/expectClose';
 
 type StepId = 'current-step' | 'pll-phase-step' | 'dc-link-load-step';
 interface FixtureCase { name: string; inputs: LoopInputs; plantZoh: { num: number[]; den: number[] }; steps?: Record<StepId, number[]> }
@@ -27,8 +27,10 @@ describe('step responses vs a per-sample simulation of scipy.signal.tf2ss blocks
     for (const id of ['current-step', 'pll-phase-step', 'dc-link-load-step'] as const) {
       const got = time![id];
       expect(got.value).toHaveLength(n);
-      expectClose(got.value, steps[id], { atol: 1e-10 * maxAbs(steps[id]) }, id);
-      expectClose(got.timeS[n - 1], (n - 1) * c.inputs.samplePeriodS, { rtol: 1e-12 }, `${id} time`);
+      // Slow loops are recorded over a longer horizon (every stride-th sample): compare where both exist.
+      const paired = atReferenceSamples(got, steps[id], c.inputs.samplePeriodS);
+      expectClose(paired.got, paired.want, { atol: 1e-10 * maxAbs(steps[id]) }, id);
+      if (id === 'current-step') expectClose(got.timeS[n - 1], (n - 1) * c.inputs.samplePeriodS, { rtol: 1e-12 }, `${id} time`);
       expect(got.label.length).toBeGreaterThan(10);
     }
   });
