@@ -1,6 +1,6 @@
 // Live analysis while the user types: debounced, run in a Web Worker when the browser has one
 // (directly otherwise, e.g. in component tests), stale answers dropped.
-import { inject, onBeforeUnmount, ref, watch, type InjectionKey, type Ref } from 'vue';
+import { inject, onBeforeUnmount, ref, shallowRef, watch, type InjectionKey, type Ref } from 'vue';
 import type { AnalysisOptions, AnalysisResult, DesignInput } from '../../shared/control';
 import type { AnalysisReply, AnalysisRequest } from '../workers/analysisProtocol';
 
@@ -68,7 +68,8 @@ export interface LiveAnalysis {
  * @returns the live state.
  */
 export function useLiveAnalysis(design: Ref<DesignInput | null>, options: { debounceMs?: number; runner?: AnalysisRunner } = {}): LiveAnalysis {
-  const result = ref<AnalysisResult | null>(null);
+  // shallow: the result is replaced whole, never mutated; deep proxies over thousands of plot points cost a frame.
+  const result = shallowRef<AnalysisResult | null>(null);
   const error = ref<string | null>(null);
   const running = ref(false);
   const elapsedMs = ref<number | null>(null);
