@@ -3,21 +3,9 @@
 // warm-up, also with the analysis included (what `varsmith export` does). Target: median <= 300 ms.
 import { analyzeDesign, type DesignInput } from '../../shared/control/index';
 import { buildBundle } from '../../server/export/index';
+import { contractExampleDesign } from '../../shared/api/designExample';
 
-const DESIGN: DesignInput = {
-  format: 'varsmith-design/1',
-  name: 'Bench rig, four harmonics',
-  grid: { voltageRmsV: 120, frequencyHz: 60 },
-  rating: { apparentPowerVA: 3300 },
-  filter: { topology: 'L', inductanceH: 0.0006, resistanceOhm: 0.03 },
-  dcLink: { capacitanceF: 0.0022, voltageRefV: 200 },
-  sampling: { switchingFrequencyHz: 20000, updatesPerCarrier: 1, computationDelaySamples: 1 },
-  currentLoop: { crossoverHz: 1000, harmonics: [1, 3, 5, 7], resonantBandwidthHz: 0.5, kp: null, resonantGains: null },
-  voltageLoop: { crossoverHz: 12, phaseMarginDeg: 60, kp: null, ki: null },
-  pll: { sogiGain: Math.SQRT2, settlingTimeS: 0.06, dampingRatio: 0.7071, kp: null, ki: null },
-  reactiveFilter: { order: 2, cutoffHz: 10 },
-  fixedPoint: { wordBits: 32 },
-};
+const DESIGN: DesignInput = contractExampleDesign('Bench rig, four harmonics');
 
 const RUNS = 20;
 

@@ -2,6 +2,7 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import type { DesignInput } from '../../shared/control';
+import { contractExampleDesign } from '../../shared/api/designExample';
 import { createDesign, listDesigns } from '../api/designs';
 import type { DesignDetail, DesignSummary } from '../api/types';
 
@@ -12,20 +13,7 @@ import type { DesignDetail, DesignSummary } from '../api/types';
  * @returns a complete `varsmith-design/1` design.
  */
 export function newDesignTemplate(name: string): DesignInput {
-  return {
-    format: 'varsmith-design/1',
-    name,
-    grid: { voltageRmsV: 120, frequencyHz: 60 },
-    rating: { apparentPowerVA: 3300 },
-    filter: { topology: 'L', inductanceH: 0.0006, resistanceOhm: 0.03 },
-    dcLink: { capacitanceF: 0.0022, voltageRefV: 200 },
-    sampling: { switchingFrequencyHz: 20000, updatesPerCarrier: 1, computationDelaySamples: 1 },
-    currentLoop: { crossoverHz: 1000, harmonics: [1, 3, 5, 7], resonantBandwidthHz: 0.5, kp: null, resonantGains: null },
-    voltageLoop: { crossoverHz: 12, phaseMarginDeg: 60, kp: null, ki: null },
-    pll: { sogiGain: Math.SQRT2, settlingTimeS: 0.06, dampingRatio: 0.7071, kp: null, ki: null },
-    reactiveFilter: { order: 2, cutoffHz: 10 },
-    fixedPoint: { wordBits: 32 },
-  };
+  return contractExampleDesign(name);
 }
 
 /** Designs visible to the signed-in user. */
