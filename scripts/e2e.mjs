@@ -6,7 +6,7 @@
 // Screenshots go to .e2e-artifacts/. Prints `N passed, M failed`; exits non-zero on failure.
 import { createHash } from 'node:crypto';
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import {
@@ -99,6 +99,19 @@ async function main() {
   let pullLine = null;
   let firstRevisionId = null;
   try {
+    await step('the built client references no other host (dist/ HTML and CSS)', async () => {
+      const dist = path.resolve('dist');
+      const files = [path.join(dist, 'index.html'), ...readdirSync(path.join(dist, 'assets')).filter((f) => f.endsWith('.css')).map((f) => path.join(dist, 'assets', f))];
+      const external = /(?:src|href)\s*=\s*["']?(?:https?:)?\/\/|url\(\s*["']?(?:https?:)?\/\/|@import\s+["'](?:https?:)?\/\//i;
+      for (const file of files) {
+        const text = readFileSync(file, 'utf8');
+        const hit = text.match(external);
+        expect(!hit, `${path.relative(dist, file)} loads from another host: ${hit?.[0]}`);
+      }
+      const fonts = readdirSync(path.join(dist, 'assets')).filter((f) => /\.(woff2?|ttf)$/.test(f));
+      expect(fonts.length > 0, 'no font files shipped in dist/assets (Roboto and Material Icons must be local)');
+    });
+
     for (const role of Object.keys(TOURS)) {
       await step(`${role} signs in through the form and tours ${TOURS[role].join(', ')}`, async () => {
         const context = await browser.newContext({ viewport: { width: 1440, height: 900 }, acceptDownloads: true });

@@ -151,11 +151,18 @@ export async function instrumentCanvas(context) {
 }
 
 /**
- * Watches a page: console errors, uncaught exceptions and 5xx answers go to `sink`.
+ * Watches a page: console errors, uncaught exceptions, 5xx answers and requests to any other host go to `sink`.
  * @param page - the page.
  * @param sink - `(message) => void`.
  */
 export function watchPage(page, sink) {
+  // The built app fetches nothing from another host: every request goes to the loopback server (or is data:/blob:).
+  page.on('request', (req) => {
+    const url = new URL(req.url());
+    if ((url.protocol === 'http:' || url.protocol === 'https:' || url.protocol === 'ws:' || url.protocol === 'wss:') && url.hostname !== '127.0.0.1' && url.hostname !== 'localhost') {
+      sink(`request to another host from ${page.url()}: ${req.url()}`);
+    }
+  });
   page.on('console', (msg) => { if (msg.type() === 'error') sink(`console error on ${page.url()}: ${msg.text()}`); });
   page.on('pageerror', (err) => sink(`uncaught exception on ${page.url()}: ${err.message}`));
   page.on('response', (res) => { if (res.status() >= 500) sink(`${res.status()} from ${res.request().method()} ${res.url()}`); });
