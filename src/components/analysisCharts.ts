@@ -17,3 +17,9 @@ export const AXIS_STYLE = {
   axisLabel: { color: '#3a3f46' },
   nameTextStyle: { color: '#3a3f46' },
 } as const;
+
+/**
+ * Grid options shared by all plots: the margins are fixed in pixels (wide enough for the tick labels
+ * and axis names), so ECharts is told not to re-measure the labels to fit them on every redraw.
+ */
+export const FIXED_GRID = { outerBoundsMode: 'none' } as const;

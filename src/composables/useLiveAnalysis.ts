@@ -1,5 +1,7 @@
-// Live analysis while the user types: debounced, run in a Web Worker when the browser has one
-// (directly otherwise, e.g. in component tests), stale answers dropped.
+// Live analysis while the user types: run in a Web Worker when the browser has one (directly
+// otherwise, e.g. in component tests). No debounce: the first edit starts a run at once; edits made
+// while a run is in flight are coalesced into one follow-up run with the newest design, and the
+// answer for a design that has since changed is dropped.
 import { inject, onBeforeUnmount, ref, shallowRef, watch, type InjectionKey, type Ref } from 'vue';
 import type { AnalysisOptions, AnalysisResult, DesignInput } from '../../shared/control';
 import type { AnalysisReply, AnalysisRequest } from '../workers/analysisProtocol';
@@ -8,10 +10,10 @@ import type { AnalysisReply, AnalysisRequest } from '../workers/analysisProtocol
 export const LIVE_ANALYSIS_OPTIONS: AnalysisOptions = { sweepPoints: 400, responseSamples: 400 };
 
 /**
- * Debounce between the last keystroke and the analysis. Short: the analysis takes about 10 ms in the
- * worker, off the main thread, and a stale answer is dropped, so typing never waits for it.
+ * How long the shown result may lag the form before the page says so (progress bar, dimmed
+ * panel). A run takes a few ms, so a quick one never flickers the page.
  */
-export const LIVE_ANALYSIS_DEBOUNCE_MS = 25;
+export const LIVE_ANALYSIS_SETTLING_MS = 150;
 
 /** Runs one request somewhere and answers it. */
 export type AnalysisRunner = (request: AnalysisRequest) => Promise<AnalysisReply>;
@@ -57,7 +59,10 @@ const directRunner: AnalysisRunner = async (request) => {
 export interface LiveAnalysis {
   result: Ref<AnalysisResult | null>;
   error: Ref<string | null>;
+  /** A run is in flight. */
   running: Ref<boolean>;
+  /** The shown result has lagged the form for more than `LIVE_ANALYSIS_SETTLING_MS` (say so on the page). */
+  settling: Ref<boolean>;
   /** Compute time of the last answer in ms. */
   elapsedMs: Ref<number | null>;
   /** Whether `result` belongs to the design currently in the form. */
@@ -67,56 +72,84 @@ export interface LiveAnalysis {
 /**
  * Analyses `design` whenever it changes (null = the form has errors: keep the last result, marked stale).
  * @param design - the valid design of the form, or null.
- * @param options - debounce and runner overrides (tests).
+ * @param options - runner and settling-delay overrides (tests).
  * @returns the live state.
  */
-export function useLiveAnalysis(design: Ref<DesignInput | null>, options: { debounceMs?: number; runner?: AnalysisRunner } = {}): LiveAnalysis {
+export function useLiveAnalysis(design: Ref<DesignInput | null>, options: { runner?: AnalysisRunner; settlingMs?: number } = {}): LiveAnalysis {
   // shallow: the result is replaced whole, never mutated; deep proxies over thousands of plot points cost a frame.
   const result = shallowRef<AnalysisResult | null>(null);
   const error = ref<string | null>(null);
   const running = ref(false);
+  const settling = ref(false);
   const elapsedMs = ref<number | null>(null);
   const current = ref(false);
   const provided = options.runner ?? inject(ANALYSIS_RUNNER_KEY, null);
   const worker = provided ? null : workerRunner();
   const run = provided ?? worker?.run ?? directRunner;
-  const debounceMs = options.debounceMs ?? LIVE_ANALYSIS_DEBOUNCE_MS;
-  let timer: ReturnType<typeof setTimeout> | null = null;
+  const settlingMs = options.settlingMs ?? LIVE_ANALYSIS_SETTLING_MS;
+  let settlingTimer: ReturnType<typeof setTimeout> | null = null;
   let lastId = 0;
+  let inFlight = false;
+  /** The newest design not yet sent (edits made while a run was in flight). */
+  let queued: DesignInput | null = null;
+  let disposed = false;
+
+  function markCurrent(value: boolean): void {
+    current.value = value;
+    if (value || !result.value) {
+      if (settlingTimer) clearTimeout(settlingTimer);
+      settlingTimer = null;
+      settling.value = false;
+    } else if (!settlingTimer && !settling.value) {
+      settlingTimer = setTimeout(() => { settlingTimer = null; settling.value = !current.value; }, settlingMs);
+    }
+  }
 
   async function start(value: DesignInput): Promise<void> {
     lastId += 1;
     const id = lastId;
+    inFlight = true;
     running.value = true;
     const reply = await run({ id, design: JSON.parse(JSON.stringify(value)) as DesignInput, options: LIVE_ANALYSIS_OPTIONS });
+    inFlight = false;
+    if (disposed) return;
+    if (queued) {
+      const next = queued;
+      queued = null;
+      void start(next);
+      return;
+    }
     if (id !== lastId) return;
     running.value = false;
     elapsedMs.value = reply.elapsedMs;
     if (reply.ok) {
       result.value = reply.result;
       error.value = null;
-      current.value = true;
+      markCurrent(true);
     } else {
       error.value = reply.message;
-      current.value = false;
+      markCurrent(false);
     }
   }
 
   watch(design, (value) => {
-    if (timer) clearTimeout(timer);
-    current.value = false;
+    markCurrent(false);
     if (!value) {
+      // The form is invalid: forget any queued design and let the in-flight answer fall on the floor.
+      queued = null;
       lastId += 1;
       running.value = false;
       return;
     }
-    timer = setTimeout(() => void start(value), debounceMs);
+    if (inFlight) queued = value;
+    else void start(value);
   }, { immediate: true, deep: true });
 
   onBeforeUnmount(() => {
-    if (timer) clearTimeout(timer);
+    disposed = true;
+    if (settlingTimer) clearTimeout(settlingTimer);
     worker?.dispose();
   });
 
-  return { result, error, running, elapsedMs, current };
+  return { result, error, running, settling, elapsedMs, current };
 }
