@@ -316,7 +316,7 @@ async function main() {
   if (!latency || latency.medianMs === null) {
     process.stdout.write('keystroke -> redrawn plots: not measured (the plots did not redraw)\n');
   } else {
-    process.stdout.write(`keystroke -> redrawn plots: median ${latency.medianMs?.toFixed(1)} ms, p95 ${latency.p95Ms?.toFixed(1)} ms, min ${latency.minMs?.toFixed(1)} ms, max ${latency.maxMs?.toFixed(1)} ms over ${latency.samplesMs.length} keystrokes (target <= 50 ms; the workspace reports the analysis itself at a median ${latency.analysisMedianMs ?? '?'} ms, plus the input debounce)\n`);
+    process.stdout.write(`keystroke -> redrawn plots: median ${latency.medianMs?.toFixed(1)} ms, p95 ${latency.p95Ms?.toFixed(1)} ms, min ${latency.minMs?.toFixed(1)} ms, max ${latency.maxMs?.toFixed(1)} ms over the first ${latency.samplesMs.length} keystrokes after opening, while the tests load the machine (the workspace reports the analysis itself at a median ${latency.analysisMedianMs ?? '?'} ms; the steady-state figure against the 50 ms target comes from npm run bench)\n`);
   }
   const passed = results.filter((r) => r.ok).length;
   const failed = results.length - passed;

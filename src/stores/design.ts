@@ -1,7 +1,7 @@
 // The design open in the workspace: the server's working copy, the edited draft, saving with
 // conflict detection, submitting a revision and exporting a draft bundle.
 import { defineStore } from 'pinia';
-import { computed, ref } from 'vue';
+import { computed, ref, shallowRef } from 'vue';
 import type { DesignInput } from '../../shared/control';
 import { ApiError, type DownloadedFile, type DownloadProgress } from '../api/client';
 import { downloadDraftBundle, getDesign, saveDesign } from '../api/designs';
@@ -23,7 +23,8 @@ export const useDesignStore = defineStore('design', () => {
   /** The working copy as last loaded or saved (the base of the edit). */
   const saved = ref<DesignDetail | null>(null);
   /** The valid design the form currently holds; null while the form has errors. */
-  const draft = ref<DesignInput | null>(null);
+  // Replaced whole on every edit, never mutated: shallow, so no deep proxy is built per keystroke.
+  const draft = shallowRef<DesignInput | null>(null);
   /** Whether the form holds text that does not validate. */
   const draftInvalid = ref(false);
   /** Set when a save was refused because someone else saved first. */

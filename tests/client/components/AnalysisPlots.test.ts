@@ -26,8 +26,11 @@ describe('analysis plots', () => {
     const wrapper = mount(AnalysisPlotsBode, { props: { loop: result.loops[0], response: result.responses!.openLoop.current }, global });
     const option = optionOf(wrapper);
     expect((option.xAxis as { type: string }[]).map((a) => a.type)).toEqual(['log', 'log']);
-    const [magnitude, phase] = option.series as { data: number[][]; markLine: { data: Record<string, unknown>[] }; markPoint?: { data: { coord: number[]; value: string }[] } }[];
-    expect(magnitude.data).toHaveLength(41);
+    const [magnitude, phase] = option.series as { data: Float64Array; markLine: { data: Record<string, unknown>[] }; markPoint?: { data: { coord: number[]; value: string }[] } }[];
+    expect(magnitude.data).toHaveLength(2 * 41); // interleaved [f0, |L|0, f1, |L|1, …]
+    const response = result.responses!.openLoop.current;
+    expectClose(Array.from(magnitude.data.filter((_, i) => i % 2 === 0)), response.frequencyHz, { rtol: 0 });
+    expectClose(Array.from(phase.data.filter((_, i) => i % 2 === 1)), response.phaseDeg, { rtol: 0 });
     expect(magnitude.markLine.data).toContainEqual({ yAxis: 0, name: '0 dB' });
     expect(magnitude.markLine.data).toContainEqual({ xAxis: 1000, name: 'fc 1000 Hz' });
     expect(phase.markLine.data).toContainEqual({ yAxis: -180, name: '−180°' });
@@ -40,8 +43,9 @@ describe('analysis plots', () => {
   it('plots each step response against time in milliseconds', () => {
     const wrapper = mount(AnalysisPlotsStep, { props: { time: result.responses!.time }, global });
     const option = optionOf(wrapper);
-    const data = (option.series[0] as { data: number[][] }).data;
-    expectClose(data.map((p) => p[0]), [0, 0.05, 0.1], { rtol: 1e-12 });
+    const data = (option.series[0] as { data: Float64Array }).data;
+    expectClose(Array.from(data.filter((_, i) => i % 2 === 0)), [0, 0.05, 0.1], { rtol: 1e-12 });
+    expectClose(Array.from(data.filter((_, i) => i % 2 === 1)), result.responses!.time[Object.keys(result.responses!.time)[0]].value, { rtol: 0 });
     expect(wrapper.text()).toContain('Current reference step');
   });
 

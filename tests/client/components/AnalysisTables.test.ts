@@ -13,8 +13,15 @@ import { buildAnalysis } from '../analysisFixture';
 const global = { plugins: [Quasar] };
 
 describe('analysis tables', () => {
-  it('lists errors first with value, limit and remedy', () => {
+  it('lists errors first with value, limit and remedy; info notes fold behind one row', async () => {
     const wrapper = mount(AnalysisFindings, { props: { checks: buildAnalysis().checks }, global });
+    expect(wrapper.findAll('[data-severity]').map((i) => i.attributes('data-severity'))).toEqual(['error', 'warning']);
+    const toggle = wrapper.get('[data-test="findings-notes-toggle"]');
+    expect(toggle.attributes('aria-expanded')).toBe('false');
+    expect(toggle.text()).toContain('Show 1 note');
+    await toggle.trigger('click');
+    expect(toggle.attributes('aria-expanded')).toBe('true');
+    expect(toggle.text()).toContain('Hide 1 note');
     const items = wrapper.findAll('[data-severity]');
     expect(items.map((i) => i.attributes('data-severity'))).toEqual(['error', 'warning', 'info']);
     expect(items[0].text()).toContain('Remedy: Use 32-bit words');
@@ -22,6 +29,14 @@ describe('analysis tables', () => {
     expect(items[0].text()).toContain('limit 0.05 Hz');
     expect(wrapper.text()).toContain('1 error');
     expect(wrapper.text()).toContain('1 warning');
+  });
+
+  it('says so when only info notes are left, and still folds them', () => {
+    const checks = buildAnalysis().checks.filter((c) => c.severity === 'info');
+    const wrapper = mount(AnalysisFindings, { props: { checks }, global });
+    expect(wrapper.find('[data-test="findings-none-serious"]').exists()).toBe(true);
+    expect(wrapper.findAll('[data-severity]')).toHaveLength(0);
+    expect(wrapper.get('[data-test="findings-notes-toggle"]').text()).toContain(`Show ${checks.length} note`);
   });
 
   it('flags the unstable loop and says when a margin does not exist', () => {
