@@ -2,7 +2,7 @@
  * The whole pipeline for one design: gains, discrete sections, fixed point, loops, plant and
  * checks, as a `varsmith-analysis/1` result (CONTRACT section 3). Pure and deterministic.
  */
-import { lowPassPrewarped, piTustin, resonatorPrewarped, sectionResponse, sogiPrewarped, type SectionPair } from './blocks';
+import { forEachStepSample, lowPassPrewarped, piTustin, resonatorPrewarped, sectionResponse, sogiPrewarped, type SectionPair } from './blocks';
 import { designGains, type DesignedGains } from './designRules';
 import { resonanceByMethodHz } from './discretize';
 import { analyzeFixedSection, fixedPointChecks, quantizedResonanceHz } from './fixedPoint';
@@ -96,12 +96,9 @@ function sectionStep(pair: SectionPair, samplePeriodS: number, horizonS: number,
   const stride = Math.max(1, Math.floor(total / samples));
   const timeS: number[] = [];
   const value: number[] = [];
-  let x1 = 0, x2 = 0, y1 = 0, y2 = 0;
-  for (let i = 0; timeS.length < samples; i++) {
-    const y = pair.b[0] + pair.b[1] * x1 + pair.b[2] * x2 - pair.a[1] * y1 - pair.a[2] * y2;
+  forEachStepSample(pair, stride * samples, (i, y) => {
     if (i % stride === 0) { timeS.push(i * samplePeriodS); value.push(y); }
-    x2 = x1; x1 = 1; y2 = y1; y1 = y;
-  }
+  });
   return { timeS, value, label };
 }
 

@@ -166,3 +166,29 @@ export function sectionResponse(section: { b: readonly number[]; a: readonly num
   const m = dr * dr + di * di;
   return { re: (nr * dr + ni * di) / m, im: (ni * dr - nr * di) / m };
 }
+
+/**
+ * Unit-step response of one section, sample by sample: y[n] = b0 u[n] + b1 u[n-1] + b2 u[n-2]
+ * - a1 y[n-1] - a2 y[n-2] with u = 1 from n = 0 (Direct Form I, a0 = 1; Oppenheim & Schafer,
+ * "Discrete-Time Signal Processing", 3rd ed., 2010, sec. 6.3).
+ *
+ * @param section - b and a in powers of z^-1 (a[0] = 1).
+ * @param sampleCount - how many samples at most (n = 0 … sampleCount - 1).
+ * @param visit - called with the sample index and y[n]; returning `false` stops the run.
+ * @returns the number of samples visited.
+ * @example
+ * const ys: number[] = [];
+ * forEachStepSample({ b: [0.5, 0, 0], a: [1, -0.5, 0] }, 3, (_, y) => { ys.push(y); }); // => 3, ys = [0.5, 0.75, 0.875]
+ */
+export function forEachStepSample(section: { b: readonly number[]; a: readonly number[] }, sampleCount: number, visit: (index: number, value: number) => boolean | void): number {
+  const [b0, b1, b2] = section.b;
+  const a1 = section.a[1];
+  const a2 = section.a[2];
+  let x1 = 0, x2 = 0, y1 = 0, y2 = 0;
+  for (let i = 0; i < sampleCount; i++) {
+    const y = b0 + b1 * x1 + b2 * x2 - a1 * y1 - a2 * y2;
+    if (visit(i, y) === false) return i + 1;
+    x2 = x1; x1 = 1; y2 = y1; y1 = y;
+  }
+  return sampleCount;
+}

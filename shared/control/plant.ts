@@ -2,7 +2,7 @@
  * Plant checks (DESIGN pipeline step 1): rated current, inductor drop, switching ripple, DC-link
  * ripple and headroom, LCL resonance placement, estimator attenuation and settling.
  */
-import { sectionResponse, type SectionPair } from './blocks';
+import { forEachStepSample, sectionResponse, type SectionPair } from './blocks';
 import { totalInductanceH } from './designRules';
 import type { Check, DesignInput } from './types';
 
@@ -54,12 +54,10 @@ export function stepSettlingTimeS(section: SectionPair | { b: readonly number[];
   const n = Math.min(Math.ceil(horizonS / samplePeriodS), 5_000_000);
   const finalValue = (section.b[0] + section.b[1] + section.b[2]) / (section.a[0] + section.a[1] + section.a[2]);
   if (!Number.isFinite(finalValue)) return null;
-  let x1 = 0, x2 = 0, y1 = 0, y2 = 0, lastOutside = -1;
-  for (let i = 0; i < n; i++) {
-    const y = section.b[0] + section.b[1] * x1 + section.b[2] * x2 - section.a[1] * y1 - section.a[2] * y2;
+  let lastOutside = -1;
+  forEachStepSample(section, n, (i, y) => {
     if (Math.abs(y - finalValue) > 0.02 * Math.abs(finalValue)) lastOutside = i;
-    x2 = x1; x1 = 1; y2 = y1; y1 = y;
-  }
+  });
   if (lastOutside >= n - 1) return null;
   return (lastOutside + 1) * samplePeriodS;
 }

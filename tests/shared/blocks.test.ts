@@ -3,7 +3,7 @@
 import { describe, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { expectClose } from '../helpers/expectClose';
-import { lowPassPrewarped, piTustin, resonatorPrewarped, sectionResponse, sogiPrewarped } from '../../shared/control/blocks';
+import { forEachStepSample, lowPassPrewarped, piTustin, resonatorPrewarped, sectionResponse, sogiPrewarped } from '../../shared/control/blocks';
 import { resonanceHzFromDenominator } from '../../shared/control/resonance';
 
 interface Pair { b: number[]; a: number[] }
@@ -100,5 +100,23 @@ describe('cross-check values of REFERENCES (computed there with scipy 1.17)', ()
     expectClose([l2.b[0], l2.a[1], l2.a[2]], [2.461930046414063e-6, -1.995557124345789, 0.995566972065975], { rtol: 1e-11 });
     const h = sectionResponse(l1, 100, 5e-5);
     expectClose(Math.hypot(h.re, h.im), 0.0995, { atol: 5e-5 });
+  });
+});
+
+describe('forEachStepSample', () => {
+  // Hand-derived: H(z) = 0.5 / (1 - 0.5 z^-1) under a unit step gives y[n] = 1 - 0.5^(n+1).
+  it('follows the closed form of a first-order section and stops when told', () => {
+    const ys: number[] = [];
+    const visited = forEachStepSample({ b: [0.5, 0, 0], a: [1, -0.5, 0] }, 40, (n, y) => { ys.push(y); return n < 29; });
+    expectClose(visited, 30, { rtol: 0 });
+    expectClose(ys, ys.map((_, n) => 1 - 0.5 ** (n + 1)), { rtol: 1e-15 });
+  });
+
+  // Hand-derived: the PI y[n] = y[n-1] + kp (u[n] - u[n-1]) + ki Ts u[n] ramps as kp + ki Ts (n + 1).
+  it('ramps for an integrator with the backward-difference PI', () => {
+    const kp = 2, kiTs = 0.01;
+    const ys: number[] = [];
+    forEachStepSample({ b: [kp + kiTs, -kp, 0], a: [1, -1, 0] }, 5, (_, y) => { ys.push(y); });
+    expectClose(ys, [0, 1, 2, 3, 4].map((n) => kp + kiTs * (n + 1)), { rtol: 1e-14 });
   });
 });
