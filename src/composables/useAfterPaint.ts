@@ -4,30 +4,27 @@
 import { onBeforeUnmount, shallowRef, watch, type Ref, type ShallowRef } from 'vue';
 
 /**
- * Runs `callback` after the next frame has been painted (a task queued from `requestAnimationFrame`),
- * or on the next task where there are no frames (tests, hidden tabs).
+ * Runs `callback` after the next frame has been painted (a task queued from `requestAnimationFrame`);
+ * on the next task where there is no `requestAnimationFrame`; after 100 ms when no frame comes (hidden tab).
  * @param callback - what to run.
  * @returns a function that cancels it.
  */
 export function afterNextPaint(callback: () => void): () => void {
-  let timer: ReturnType<typeof setTimeout> | null = null;
-  let frame: number | null = null;
-  // A hidden page gets no frames: fall back to a timer so the value still follows.
-  const fallback = setTimeout(() => { if (frame !== null && typeof cancelAnimationFrame === 'function') cancelAnimationFrame(frame); frame = null; callback(); }, 100);
-  if (typeof requestAnimationFrame === 'function') {
-    frame = requestAnimationFrame(() => {
-      frame = null;
-      clearTimeout(fallback);
-      timer = setTimeout(callback, 0);
-    });
-  } else {
-    clearTimeout(fallback);
-    timer = setTimeout(callback, 0);
+  if (typeof requestAnimationFrame !== 'function') {
+    const timer = setTimeout(callback, 0);
+    return () => clearTimeout(timer);
   }
+  let frame: number | null = null;
+  // A hidden page gets no frames: this timer makes the callback run anyway.
+  let timer = setTimeout(() => { if (frame !== null) cancelAnimationFrame(frame); frame = null; callback(); }, 100);
+  frame = requestAnimationFrame(() => {
+    frame = null;
+    clearTimeout(timer);
+    timer = setTimeout(callback, 0);
+  });
   return () => {
-    clearTimeout(fallback);
-    if (timer) clearTimeout(timer);
-    if (frame !== null && typeof cancelAnimationFrame === 'function') cancelAnimationFrame(frame);
+    clearTimeout(timer);
+    if (frame !== null) cancelAnimationFrame(frame);
   };
 }
 
