@@ -91,8 +91,84 @@ export const designSchema = z.strictObject({
   }),
   fixedPoint: z.strictObject({
     wordBits: z.union([z.literal(16), z.literal(32)], { error: 'must be 16 or 32' }),
+    arithmetic: z.enum(['fixed', 'float32'], { error: 'must be "fixed" or "float32"' }).optional(),
+    structure: z.enum(['direct-form-1', 'quantization-robust'], { error: 'must be "direct-form-1" or "quantization-robust"' }).optional(),
   }),
+  // CONTRACT section 7: every key optional; the defaults are documented in shared/control/signals.ts.
+  signals: z.strictObject({
+    units: z.enum(['per-unit', 'si'], { error: 'must be "per-unit" or "si"' }).optional(),
+    // At most W - 1 (checked below): a signal word needs its sign bit.
+    signalFracBits: integer(0, 31).optional(),
+    // Sensor full scales: positive, at most 1 MA / 1 MV (beyond any converter this tool designs for).
+    currentSenseFullScaleA: bounded(0, 1e6, 'A', true).optional(),
+    gridVoltageSenseFullScaleV: bounded(0, 1e6, 'V', true).optional(),
+    dcVoltageSenseFullScaleV: bounded(0, 1e6, 'V', true).optional(),
+    // 8 to 24 bits: from the coarsest built-in converters to sigma-delta modulators (common practice, no source).
+    adcBits: integer(8, 24).optional(),
+    // Up to 2^24 counts: 16- and 32-bit timers, and every count exact in binary32 (common practice, no source).
+    pwmCarrierCounts: integer(16, 2 ** 24).optional(),
+  }).optional(),
+  limits: z.strictObject({
+    currentReferencePeakA: bounded(0, 1e6, 'A', true).optional(),
+    // A single-phase full bridge modulates linearly up to m = 1 (Holmes & Lipo, "Pulse Width Modulation
+    // for Power Converters", 2003, from memory).
+    modulationIndexMax: bounded(0, 1, '', true).optional(),
+    // Below half the grid frequency (checked below): beyond it the PLL would not be tracking that grid.
+    pllFrequencyDeviationHz: bounded(0, 500, 'Hz', true).optional(),
+  }).optional(),
+  firmware: z.strictObject({
+    symbolPrefix: z.string({ error: 'must be a string' })
+      .superRefine((v, ctx) => {
+        const problem = symbolPrefixProblem(v);
+        if (problem !== null) ctx.addIssue({ code: 'custom', message: problem });
+      })
+      .optional(),
+  }).optional(),
+  // CONTRACT section 9: the operating envelope the controller (fixed at nominal) must ride.
+  envelope: z.strictObject({
+    // SCR 1 is the weakest grid that can still carry the rated power at all (IEEE Std 1204-1997 calls
+    // below 3 "low", from memory); null = stiff grid only.
+    shortCircuitRatioMin: z.union([z.null(), bounded(1, 1e4, '')], { error: 'must be null (stiff grid only) or a number in [1, 10000]' }).optional(),
+    // Up to +-50 %: beyond any filter-component tolerance class (common practice, no source).
+    filterTolerance: bounded(0, 0.5, '').optional(),
+    gridFrequencyHz: z.tuple([bounded(1, 1000, 'Hz'), bounded(1, 1000, 'Hz')], { error: 'must be [min, max] in Hz' }).optional(),
+    // Up to +-30 %: wider than the continuous-operation ranges of interconnection rules (common practice, no source).
+    gridVoltageTolerance: bounded(0, 0.3, '').optional(),
+    dcLinkCapacitanceTolerance: bounded(0, 0.5, '').optional(),
+  }).optional(),
 });
+
+/** Longest accepted `firmware.symbolPrefix`: with the longest suffix the exporter appends, external names stay within the 31 significant characters C99 guarantees (C99 5.2.4.1). */
+export const SYMBOL_PREFIX_MAX_LENGTH = 12;
+
+/**
+ * Why a string cannot be the C prefix of an exported set, or null when it can.
+ *
+ * Rule: 1 to 12 characters, a letter first, then letters and digits in groups joined by single
+ * underscores (no leading, trailing or double underscore: C99 7.1.3 reserves leading underscores);
+ * functions use the prefix in lower case and macros in upper case, so neither form may start a name
+ * the C library reserves: `is`/`to`/`str`/`mem`/`wcs` + a letter (C99 7.26.2, 7.26.11), `E` + a digit or
+ * letter (7.26.3), `SIG` (7.26.9), `LC` (7.26.5), `PRI`/`SCN` + a letter (7.26.4), `INT`/`UINT` (7.26.8).
+ *
+ * @param prefix - candidate prefix as written in the design.
+ * @returns a sentence naming the rule broken, or null.
+ * @example
+ * symbolPrefixProblem('SC3'); // => null
+ * symbolPrefixProblem('str_ctl'); // => 'must not start with ...'
+ */
+export function symbolPrefixProblem(prefix: string): string | null {
+  if (prefix.length < 1 || prefix.length > SYMBOL_PREFIX_MAX_LENGTH) return `must be 1 to ${SYMBOL_PREFIX_MAX_LENGTH} characters`;
+  if (!/^[A-Za-z][A-Za-z0-9]*(?:_[A-Za-z0-9]+)*$/.test(prefix)) {
+    return 'must be a C identifier prefix: a letter, then letters and digits, single underscores between them';
+  }
+  const lower = prefix.toLowerCase();
+  const upper = prefix.toUpperCase();
+  if (/^(?:is|to|str|mem|wcs)[a-z]/.test(lower) || /^e[0-9a-z]/.test(lower) || /^sig/.test(lower) || /^lc(?:_|$)/.test(lower)
+    || /^(?:pri|scn)[a-z]/.test(lower) || /^u?int/.test(lower) || /^(?:PRI|SCN)X/.test(upper)) {
+    return 'must not start with a name the C standard library reserves (is/to/str/mem/wcs + letter, E + letter or digit, SIG, LC, PRI/SCN + letter, INT, UINT)';
+  }
+  return null;
+}
 
 /** The design as the schema infers it. */
 export type ParsedDesign = z.infer<typeof designSchema>;
@@ -128,6 +204,23 @@ function crossFieldIssues(d: ParsedDesign): DesignIssue[] {
   if (d.grid.frequencyHz >= nyquistHz) issues.push({ path: 'grid.frequencyHz', message: `must lie below Nyquist (${nyquistHz} Hz)` });
   if (d.currentLoop.resonantGains !== null && d.currentLoop.resonantGains.length !== d.currentLoop.harmonics.length) {
     issues.push({ path: 'currentLoop.resonantGains', message: `must be null or hold one gain per harmonic (${d.currentLoop.harmonics.length})` });
+  }
+  const wordBits = d.fixedPoint.wordBits;
+  if (d.signals?.signalFracBits !== undefined && d.signals.signalFracBits > wordBits - 1) {
+    issues.push({ path: 'signals.signalFracBits', message: `must be at most ${wordBits - 1} for ${wordBits}-bit words (one bit is the sign)` });
+  }
+  if (d.limits?.pllFrequencyDeviationHz !== undefined && d.limits.pllFrequencyDeviationHz >= d.grid.frequencyHz / 2) {
+    issues.push({ path: 'limits.pllFrequencyDeviationHz', message: `must lie below half the grid frequency (${d.grid.frequencyHz / 2} Hz)` });
+  }
+  const band = d.envelope?.gridFrequencyHz;
+  if (band !== undefined) {
+    const f0 = d.grid.frequencyHz;
+    if (!(band[0] < band[1])) issues.push({ path: 'envelope.gridFrequencyHz', message: 'must be [min, max] with min < max' });
+    else if (band[0] > f0 || band[1] < f0) issues.push({ path: 'envelope.gridFrequencyHz', message: `must contain the nominal grid frequency (${f0} Hz)` });
+    else if (band[0] < 0.8 * f0 || band[1] > 1.2 * f0) {
+      // +-20 % is far beyond any ride-through band (IEEE 1547-2018: 56.5 to 62 Hz at 60 Hz, from memory).
+      issues.push({ path: 'envelope.gridFrequencyHz', message: `must lie within +-20 % of the nominal grid frequency (${0.8 * f0} to ${1.2 * f0} Hz)` });
+    }
   }
   if (d.voltageLoop.crossoverHz >= d.grid.frequencyHz) {
     issues.push({ path: 'voltageLoop.crossoverHz', message: `must lie below the grid frequency (${d.grid.frequencyHz} Hz): the DC-link loop must not follow the twice-grid-frequency ripple` });

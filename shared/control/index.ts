@@ -15,3 +15,4 @@ export * from './frequencyResponse';
 export * from './margins';
 export * from './timeResponse';
 export * from './loops';
+export * from './signals';

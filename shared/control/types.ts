@@ -45,7 +45,78 @@ export interface DesignInput {
   voltageLoop: { crossoverHz: number; phaseMarginDeg: number; kp: number | null; ki: number | null };
   pll: { sogiGain: number; settlingTimeS: number; dampingRatio: number; kp: number | null; ki: number | null };
   reactiveFilter: { order: 1 | 2; cutoffHz: number };
-  fixedPoint: { wordBits: 16 | 32 };
+  fixedPoint: FixedPointInput;
+  /** Signals and scaling of the firmware (CONTRACT section 7); absent keys take the documented defaults. */
+  signals?: SignalsInput;
+  /** Output limits of the control step (CONTRACT section 7); absent keys take the documented defaults. */
+  limits?: LimitsInput;
+  /** Firmware naming (CONTRACT section 7). */
+  firmware?: FirmwareInput;
+  /** Operating envelope the fixed controller must ride (CONTRACT section 9). */
+  envelope?: EnvelopeInput;
+}
+
+/** Arithmetic of the exported set: W-bit fixed point (default) or IEEE-754 single precision. */
+export type Arithmetic = 'fixed' | 'float32';
+
+/** Realisation of the recursive sections: Direct Form I (default) or a form whose resonance does not drift with the word. */
+export type SectionStructure = 'direct-form-1' | 'quantization-robust';
+
+/** `fixedPoint` of the design file (CONTRACT sections 1 and 7). */
+export interface FixedPointInput {
+  wordBits: 16 | 32;
+  arithmetic?: Arithmetic;
+  structure?: SectionStructure;
+}
+
+/** Unit system of the block signals: per unit of the bases of CONTRACT section 7 (default), or SI. */
+export type SignalUnits = 'per-unit' | 'si';
+
+/** `signals` of the design file (CONTRACT section 7); every key optional. */
+export interface SignalsInput {
+  units?: SignalUnits;
+  /** Fractional bits of every internal signal word (default W - 3 in per unit: range +-4 pu). */
+  signalFracBits?: number;
+  /** Inverter and load current at ADC full scale, peak A. */
+  currentSenseFullScaleA?: number;
+  /** Grid voltage at ADC full scale, peak V. */
+  gridVoltageSenseFullScaleV?: number;
+  /** DC-link voltage at ADC full scale, V. */
+  dcVoltageSenseFullScaleV?: number;
+  /** Resolution of the (signed) ADC codes, bits. */
+  adcBits?: number;
+  /** PWM carrier period in timer counts. */
+  pwmCarrierCounts?: number;
+}
+
+/** `limits` of the design file (CONTRACT section 7); every key optional. */
+export interface LimitsInput {
+  /** Clamp of the current reference amplitude, peak A. */
+  currentReferencePeakA?: number;
+  /** Clamp of the modulation index (converter voltage / DC-link voltage). */
+  modulationIndexMax?: number;
+  /** Clamp of the PLL frequency around nominal, Hz. */
+  pllFrequencyDeviationHz?: number;
+}
+
+/** `firmware` of the design file (CONTRACT section 7). */
+export interface FirmwareInput {
+  /** Stable C symbol prefix (functions in lower case, macros in upper case); independent of the display name. */
+  symbolPrefix?: string;
+}
+
+/** `envelope` of the design file (CONTRACT section 9); every key optional. */
+export interface EnvelopeInput {
+  /** Weakest grid as a short-circuit ratio; null = stiff grid only. */
+  shortCircuitRatioMin?: number | null;
+  /** +- fraction applied to every L and Cf. */
+  filterTolerance?: number;
+  /** Grid-frequency band the unit must ride through, [min, max] Hz. */
+  gridFrequencyHz?: [number, number];
+  /** +- fraction of the grid voltage. */
+  gridVoltageTolerance?: number;
+  /** +- fraction of the DC-link capacitance. */
+  dcLinkCapacitanceTolerance?: number;
 }
 
 /** Identifier of a controller block (CONTRACT section 3). */
@@ -95,6 +166,18 @@ export interface FixedCoefficients {
   qFormat: string;
 }
 
+/** A section's coefficients scaled to the signals of its block (CONTRACT section 7). */
+export interface ScaledCoefficients {
+  /** Unit system the block's signals use. */
+  units: SignalUnits;
+  /** Factor g applied to the numerator (1 in SI). */
+  gain: number;
+  /** [g*b0, g*b1, g*b2]. */
+  b: number[];
+  /** [1, a1, a2], unchanged. */
+  a: number[];
+}
+
 /** One second-order section: y = sum b_i x[n-i] - sum_{i>=1} a_i y[n-i]. */
 export interface SectionResult {
   /** `proportional`, `resonant-h<h>`, `pi`, `band-pass`, `low-pass`. */
@@ -110,6 +193,9 @@ export interface SectionResult {
   resonanceHz?: { design: number; discrete: number | null; fixed: number | null };
   /** Resonator sections: where the resonance lands with other discretizations (Hz), for comparison. */
   resonanceByMethodHz?: Record<string, number | null>;
+  /** The section scaled to its block's signals (CONTRACT section 7): numerator times g, denominator unchanged. */
+  scaled?: ScaledCoefficients;
+  /** Quantization of `scaled` (of b and a when `scaled` is absent). */
   fixed: FixedCoefficients;
   /** Fixed-point properties of this section (headroom, dead band, DC gain...). */
   fixedAnalysis?: FixedSectionAnalysis;
