@@ -3,11 +3,16 @@ import { listAuditQuerySchema } from '../../shared/api/admin';
 import { route } from '../middleware/route';
 import { presentAudit } from './presenter';
 import { searchAudit } from './service';
+import { targetLabelOf, targetLabels } from './targets';
 
 /** Routes of /api/admin/audit. */
 export const auditRoutes = [
   route({
     method: 'get', path: '/admin/audit', access: ['admin'], schema: { query: listAuditQuerySchema },
-    handler: async ({ input, res }) => { res.json((await searchAudit(input.query)).map(presentAudit)); },
+    handler: async ({ input, res }) => {
+      const rows = await searchAudit(input.query);
+      const labels = await targetLabels(rows);
+      res.json(rows.map((row) => presentAudit(row, targetLabelOf(labels, row))));
+    },
   }),
 ];

@@ -3,7 +3,7 @@ import { idParamsSchema } from '../../shared/api/common';
 import { createReleaseRequestSchema, listReleasesQuerySchema, withdrawReleaseRequestSchema } from '../../shared/api/releases';
 import { ALL_ROLES, route } from '../middleware/route';
 import { releaseView } from '../revisions/view';
-import { downloadRelease, getRelease, listReleases, release, withdrawRelease } from './service';
+import { downloadRelease, getRelease, listReleases, release, releaseReport, withdrawRelease } from './service';
 
 /** Routes of /api/revisions/:id/release and /api/releases. */
 export const releaseRoutes = [
@@ -26,6 +26,10 @@ export const releaseRoutes = [
       res.set({ 'Content-Type': 'application/zip', 'Content-Disposition': `attachment; filename="${row.fileName}"`, 'X-Content-SHA256': row.sha256, 'Cache-Control': 'no-store' });
       res.send(bytes);
     },
+  }),
+  route({
+    method: 'get', path: '/releases/:id/report', access: ALL_ROLES, schema: { params: idParamsSchema },
+    handler: async ({ input, res }) => { res.type('text/markdown; charset=utf-8').set('Cache-Control', 'no-store').send(await releaseReport(input.params.id)); },
   }),
   route({
     method: 'post', path: '/releases/:id/withdraw', access: ['engineer', 'admin'], schema: { params: idParamsSchema, body: withdrawReleaseRequestSchema },

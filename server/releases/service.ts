@@ -11,6 +11,7 @@ import { analyzeDesign } from '../../shared/control';
 import { findRevision, setRevisionStatus } from '../revisions/repository';
 import { exportInputOf } from '../revisions/service';
 import { buildBundle, TOOL_VERSION } from './exporter';
+import { reportOfBundle } from './report';
 import { findRelease, findReleaseByVersion, insertRelease, listReleaseRows, markWithdrawn, releaseBytes, type ReleaseRow } from './repository';
 
 /**
@@ -51,8 +52,8 @@ export async function release(app: AppContext, actor: UserActor, revisionId: num
     await record(t, actor, 'release.create', 'release', created.id, { designId: revision.designId, revision: revision.number, version, sha256 });
     return created;
   });
-  await notifyRole(app, 'tester', `[Varsmith] ${revision.design.name} ${version} released`,
-    `${actor.name} released "${revision.design.name}" version ${version} (revision ${revision.number}).\n\nSHA-256: ${sha256}\n\n` +
+  await notifyRole(app, 'tester', `[Varsmith] ${revision.design.name} ${version} released (from r${revision.number})`,
+    `${actor.name} released "${revision.design.name}" version ${version}, made from revision r${revision.number}.\n\nSHA-256: ${sha256}\n\n` +
     `Download: ${app.config.publicUrl}/releases/${row.id}\nBench pull: npx varsmith pull --server ${app.config.publicUrl} --token <token> --design "${revision.design.name}" --set-version ${version} -o ${row.fileName}\n`);
   return row;
 }
@@ -97,6 +98,20 @@ export async function downloadRelease(app: AppContext, actor: Actor, id: number)
   if (!bytes || sha256Hex(bytes) !== row.sha256) throw new AppError('integrity', `stored bundle of release ${id} does not match its recorded SHA-256`, 500);
   await app.db.write((t) => record(t, actor, 'release.download', 'release', id, { version: row.version, sha256: row.sha256 }));
   return { row, bytes };
+}
+
+/**
+ * The report of a released set, from its stored bundle.
+ * @param id - release id.
+ * @returns the Markdown text.
+ */
+export async function releaseReport(id: number): Promise<string> {
+  await getRelease(id);
+  const bytes = await releaseBytes(id);
+  if (!bytes) throw notFound(`bundle of release ${id}`);
+  const report = await reportOfBundle(bytes);
+  if (report === null) throw notFound(`report of release ${id}`);
+  return report;
 }
 
 /**

@@ -27,7 +27,7 @@ export async function decide(app: AppContext, actor: UserActor, revisionId: numb
     return { review, authorId: revision.authorId, designName: revision.design.name, number: revision.number };
   });
   const verdict = input.decision === 'approve' ? 'approved' : 'sent back with requested changes';
-  await notifyUser(app, out.authorId, `[Varsmith] ${out.designName} revision ${out.number} ${verdict}`,
-    `${actor.name} ${verdict} revision ${out.number} of "${out.designName}".\n\n${input.comment ? `Comment: ${input.comment}\n\n` : ''}Open it: ${app.config.publicUrl}/revisions/${revisionId}\n`);
+  await notifyUser(app, out.authorId, `[Varsmith] ${out.designName} r${out.number} ${verdict}`,
+    `${actor.name} ${verdict} revision r${out.number} of "${out.designName}".\n\n${input.comment ? `Comment: ${input.comment}\n\n` : ''}Open it: ${app.config.publicUrl}/revisions/${revisionId}\n`);
   return out;
 }

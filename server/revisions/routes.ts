@@ -3,7 +3,7 @@ import { idParamsSchema } from '../../shared/api/common';
 import { diffParamsSchema, submitRevisionRequestSchema } from '../../shared/api/revisions';
 import { route } from '../middleware/route';
 import { diffRevisions, getRevision, revisionHeader, revisionsOfDesign, submitRevision } from './service';
-import { revisionDetailView, revisionSummaryView } from './view';
+import { revisionDetailView, revisionListItemView } from './view';
 
 const readers: ['engineer', 'reviewer', 'admin'] = ['engineer', 'reviewer', 'admin'];
 
@@ -18,7 +18,7 @@ export const revisionRoutes = [
   route({
     method: 'get', path: '/designs/:id/revisions', access: readers, schema: { params: idParamsSchema },
     handler: async ({ input, res }) => {
-      res.json(await Promise.all((await revisionsOfDesign(input.params.id)).map(revisionSummaryView)));
+      res.json(await Promise.all((await revisionsOfDesign(input.params.id)).map(revisionListItemView)));
     },
   }),
   route({

@@ -55,8 +55,8 @@ export async function submitRevision(app: AppContext, actor: UserActor, designId
     await record(t, actor, 'revision.submit', 'revision', row.id, { designId, number, designVersion: design.version });
     return row;
   });
-  await notifyRole(app, 'reviewer', `[Varsmith] ${revision.design.name} revision ${revision.number} waits for review`,
-    `${actor.name} submitted revision ${revision.number} of "${revision.design.name}" for review.\n\nSummary: ${summary}\n\n` +
+  await notifyRole(app, 'reviewer', `[Varsmith] ${revision.design.name} r${revision.number} waits for review`,
+    `${actor.name} submitted revision r${revision.number} of "${revision.design.name}" for review.\n\nSummary: ${summary}\n\n` +
     `Checks: ${revision.errorCount} error(s), ${revision.warningCount} warning(s).\n\nOpen it: ${app.config.publicUrl}/revisions/${revision.id}\n`);
   return revision;
 }

@@ -1,5 +1,5 @@
 // Assembles presented revisions and releases (the related rows each presenter needs).
-import type { RevisionDetail } from '../../shared/api/revisions';
+import type { RevisionDetail, RevisionListItem } from '../../shared/api/revisions';
 import type { Release } from '../../shared/api/releases';
 import { findUser } from '../users/repository';
 import { reviewsOf } from '../reviews/repository';
@@ -15,18 +15,27 @@ import { presentReview, presentRevisionDetail, presentRevisionSummary } from './
  * @returns the DTO.
  */
 export async function revisionDetailView(row: RevisionRow): Promise<RevisionDetail> {
-  const reviews = await Promise.all((await reviewsOf(row.id)).map(async (r) => presentReview(r, await findUser(r.reviewerId))));
+  const reviews = await reviewViews(row.id);
   const release = (await listReleaseRows({ designId: row.designId })).find((r) => r.revisionId === row.id);
   return presentRevisionDetail(row, await findUser(row.authorId), reviews, release ? { id: release.id, version: release.version } : null);
 }
 
 /**
- * Short revision view.
+ * Presented reviews of a revision, oldest first.
+ * @param revisionId - revision id.
+ * @returns the DTOs.
+ */
+async function reviewViews(revisionId: number) {
+  return Promise.all((await reviewsOf(revisionId)).map(async (r) => presentReview(r, await findUser(r.reviewerId))));
+}
+
+/**
+ * A revision as the history lists it: short form with its reviews (the author reads the comments).
  * @param row - the revision.
  * @returns the DTO.
  */
-export async function revisionSummaryView(row: RevisionRow) {
-  return presentRevisionSummary(row, await findUser(row.authorId));
+export async function revisionListItemView(row: RevisionRow): Promise<RevisionListItem> {
+  return { ...presentRevisionSummary(row, await findUser(row.authorId)), reviews: await reviewViews(row.id) };
 }
 
 /**

@@ -35,6 +35,8 @@ export const auditEventSchema = z.object({
   action: auditActionSchema,
   targetType: z.string(),
   targetId: z.number().int().nullable(),
+  /** The target's readable name (design name, `design r3`, `design 1.2.0`, an e-mail); null when unknown. */
+  targetLabel: z.string().nullable(),
   details: z.record(z.string(), z.unknown()),
   createdAt: z.string(),
 });

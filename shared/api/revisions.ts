@@ -35,6 +35,9 @@ export const reviewSchema = z.object({
 /** A review. */
 export type Review = z.infer<typeof reviewSchema>;
 
+/** One row of `GET /api/designs/:id/revisions`: the revision with its reviews (the comments reach the author). */
+export type RevisionListItem = RevisionSummary & { reviews: Review[] };
+
 /** `GET /api/revisions/:id`: the frozen design, its server-computed analysis and its reviews. */
 export type RevisionDetail = RevisionSummary & {
   designName: string;

@@ -16,3 +16,4 @@ export * from './margins';
 export * from './timeResponse';
 export * from './loops';
 export * from './signals';
+export * from './filterSizing';

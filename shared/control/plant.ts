@@ -4,6 +4,7 @@
  */
 import { forEachStepSample, sectionResponse, type SectionPair } from './blocks';
 import { totalInductanceH } from './designRules';
+import { lclResonanceHz as lclResonanceOf } from './filterSizing';
 import type { Check, DesignInput } from './types';
 
 /** Usual inductor drop at rated current, fraction of grid voltage (common practice, no source). */
@@ -133,7 +134,7 @@ export function plantChecks(design: DesignInput, estimator: SectionPair, sampleP
   let lclCapacitorReactiveFraction: number | null = null;
   if (design.filter.topology === 'LCL') {
     const { inverterInductanceH: l1, gridInductanceH: l2, capacitanceF: cf } = design.filter;
-    lclResonanceHz = Math.sqrt((l1 + l2) / (l1 * l2 * cf)) / (2 * Math.PI);
+    lclResonanceHz = lclResonanceOf(l1, l2, cf);
     const placed = lclResonanceHz > 10 * f0 && lclResonanceHz < sampleRateHz / 2;
     checks.push({
       id: 'plant-lcl-resonance',

@@ -95,6 +95,16 @@ export async function apiRequest<T>(method: 'GET' | 'POST' | 'PUT' | 'PATCH' | '
   return (await response.json()) as T;
 }
 
+/**
+ * Sends one request whose answer is text (a report in Markdown).
+ * @param path - absolute path starting with `/api/`.
+ * @returns the body as text.
+ */
+export async function apiText(path: string): Promise<string> {
+  const response = await send('GET', path, undefined, 'text/markdown, text/plain, */*');
+  return response.text();
+}
+
 /** Progress of a download: bytes received and total (null when the server sent no length). */
 export interface DownloadProgress {
   receivedBytes: number;

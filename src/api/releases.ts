@@ -1,6 +1,6 @@
 // Released sets (CONTRACT section 6: /api/revisions/:id/release, /api/releases).
 import type { ListReleasesQuery, Release } from '../../shared/api/releases';
-import { apiDownload, apiRequest, type DownloadedFile, type DownloadProgress } from './client';
+import { apiDownload, apiRequest, apiText, type DownloadedFile, type DownloadProgress } from './client';
 
 function idPart(id: string | number): string {
   return encodeURIComponent(String(id));
@@ -52,6 +52,40 @@ export async function createRelease(revisionId: string | number, version: string
  */
 export function downloadReleaseBundle(id: string | number, onProgress?: (progress: DownloadProgress) => void): Promise<DownloadedFile> {
   return apiDownload('GET', `/api/releases/${idPart(id)}/bundle`, undefined, onProgress);
+}
+
+/**
+ * Withdraws a release with a reason (engineer or admin); it stays listed and downloadable, marked.
+ * @param id - release id.
+ * @param reason - why, kept with the release.
+ * @returns the release after the change.
+ */
+export async function withdrawRelease(id: string | number, reason: string): Promise<Release> {
+  return unwrapRelease(await apiRequest<Release | { release: Release }>('POST', `/api/releases/${idPart(id)}/withdraw`, { reason }));
+}
+
+/**
+ * The report of a released set (REPORT.md from its stored bundle).
+ * @param id - release id.
+ * @returns the Markdown text.
+ */
+export function getReleaseReport(id: string | number): Promise<string> {
+  return apiText(`/api/releases/${idPart(id)}/report`);
+}
+
+/**
+ * A plain download of a release's bundle with curl and a bench token, then a SHA-256 check
+ * (no Varsmith command needed; curl and sha256sum from coreutils).
+ * @param origin - the server address as the browser sees it.
+ * @param release - the release.
+ * @param token - a read-only token, or a placeholder to replace.
+ * @returns two lines: the download and the check.
+ */
+export function curlCommand(origin: string, release: Pick<Release, 'id' | 'fileName' | 'sha256'>, token = '<token>'): string {
+  const file = release.fileName.endsWith('.zip') ? release.fileName : `${release.fileName}.zip`;
+  return `curl -fSL -H "Authorization: Bearer ${token}" -o ${shellQuote(file)} ${origin}/api/releases/${release.id}/bundle
+`
+    + `echo ${shellQuote(`${release.sha256}  ${file}`)} | sha256sum -c -`;
 }
 
 /**

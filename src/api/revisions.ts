@@ -1,6 +1,9 @@
 // Revisions of a design (CONTRACT section 6: /api/designs/:id/revisions, /api/revisions/:id).
 import { apiRequest } from './client';
+import type { RevisionListItem } from '../../shared/api/revisions';
 import type { RevisionDetail, RevisionSummary } from './types';
+
+export type { RevisionListItem } from '../../shared/api/revisions';
 
 /**
  * Freezes the saved working copy as a new revision in review.
@@ -16,10 +19,10 @@ export async function submitRevision(designId: string | number, summary: string)
 /**
  * Lists the revisions of a design, newest first as the server orders them.
  * @param designId - design id.
- * @returns the revisions.
+ * @returns the revisions with their reviews.
  */
-export async function listRevisions(designId: string | number): Promise<RevisionSummary[]> {
-  const body = await apiRequest<RevisionSummary[] | { revisions: RevisionSummary[] }>('GET', `/api/designs/${encodeURIComponent(String(designId))}/revisions`);
+export async function listRevisions(designId: string | number): Promise<RevisionListItem[]> {
+  const body = await apiRequest<RevisionListItem[] | { revisions: RevisionListItem[] }>('GET', `/api/designs/${encodeURIComponent(String(designId))}/revisions`);
   return Array.isArray(body) ? body : body.revisions;
 }
 

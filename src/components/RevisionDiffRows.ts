@@ -1,170 +1,200 @@
-// Row builders of the revision comparison: two frozen revisions laid out side by side, and the
-// unified header diff split into typed lines with old/new line numbers.
-import type { AnalysisResult, DesignInput } from '../../shared/control';
+// Rows of a revision in the form's words and units, and the comparison of two revisions built
+// from them: a value counts as changed when its displayed text changes; a change below display
+// precision is kept apart (folded away, exact values on hover). The unified header diff is split
+// into typed lines with old/new line numbers.
+import type { AnalysisResult, BlockId, DesignInput, Severity } from '../../shared/control';
+import { FIELD_GROUPS, RESONANT_GAIN_UNIT } from '../composables/designFields';
+import { formatExact, formatInDisplayUnit, formatNumber, formatQuantity } from '../composables/format';
+import { BLOCK_LABELS, gainLabel, LOOP_LABELS, LOOP_METRICS, methodLabel, sectionLabel, SEVERITY_LABELS } from '../composables/labels';
 
-/** One compared value: the path, the value in each revision and whether they differ. */
-export interface SideBySideRow {
-  path: string;
-  before: unknown;
-  after: unknown;
-  changed: boolean;
+/** One shown value of a revision. */
+export interface DisplayRow {
+  /** Stable identity for pairing two revisions (a key path, a check id). */
+  key: string;
+  /** Heading the row sits under (a form group, a block, a loop). */
+  group: string;
+  label: string;
+  /** What the page shows. */
+  text: string;
+  /** Every digit, for the hover title. */
+  exact: string;
+  /** For checks: the severity. */
+  severity?: Severity;
+}
+
+/** A titled group of rows. */
+export interface DisplayGroup {
+  title: string;
+  rows: DisplayRow[];
+}
+
+/** How a value moved between two revisions. */
+export type CompareStatus = 'same' | 'changed' | 'below-precision' | 'added' | 'removed';
+
+/** One compared value. */
+export interface CompareRow {
+  key: string;
+  group: string;
+  label: string;
+  before: DisplayRow | null;
+  after: DisplayRow | null;
+  status: CompareStatus;
+}
+
+const DESIGNED_BY_RULE = 'designed by rule';
+
+function getPath(object: unknown, path: string): unknown {
+  return path.split('.').reduce<unknown>((node, key) => (node && typeof node === 'object' ? (node as Record<string, unknown>)[key] : undefined), object);
 }
 
 /**
- * Flattens a JSON value into leaf paths (`filter.inductanceH`, `currentLoop.harmonics`); arrays of
- * numbers stay whole so a list of harmonics reads as one value.
- * @param value - any JSON value.
- * @param prefix - path so far.
- * @param out - accumulator.
- * @returns the map from path to leaf value.
+ * The inputs of a design as the form shows them: its groups, labels and display units
+ * (`dcLink.capacitanceF` 0.00068 reads "DC-link capacitance 680 µF").
+ * @param design - a design file.
+ * @returns the groups with their rows, in form order.
  */
-export function flattenLeaves(value: unknown, prefix = '', out: Map<string, unknown> = new Map()): Map<string, unknown> {
-  const isPlainObject = value !== null && typeof value === 'object' && !Array.isArray(value);
-  const isObjectArray = Array.isArray(value) && value.some((v) => v !== null && typeof v === 'object');
-  if (isPlainObject) {
-    for (const [key, inner] of Object.entries(value as Record<string, unknown>)) flattenLeaves(inner, prefix ? `${prefix}.${key}` : key, out);
-  } else if (isObjectArray) {
-    (value as unknown[]).forEach((inner, i) => flattenLeaves(inner, `${prefix}[${i}]`, out));
-  } else {
-    out.set(prefix, value);
+export function designInputGroups(design: DesignInput): DisplayGroup[] {
+  const groups: DisplayGroup[] = [];
+  for (const group of FIELD_GROUPS) {
+    const rows: DisplayRow[] = [];
+    const add = (key: string, label: string, text: string, exact: string) => rows.push({ key, group: group.title, label, text, exact });
+    if (group.id === 'filter') add('filter.topology', 'Topology', `${design.filter.topology} filter`, design.filter.topology);
+    for (const field of group.fields) {
+      if (field.topology && field.topology !== design.filter.topology) continue;
+      const raw = getPath(design, field.path);
+      if (typeof raw === 'number') add(field.path, field.label, formatInDisplayUnit(raw, field.unit), formatExact(raw, field.unit.symbol ? unitOfDimension(field.dimension) : null));
+      else add(field.path, field.label, field.optional ? DESIGNED_BY_RULE : '—', field.optional ? DESIGNED_BY_RULE : 'absent');
+    }
+    if (group.id === 'current-loop') {
+      add('currentLoop.harmonics', 'Resonant harmonics', design.currentLoop.harmonics.join(', '), JSON.stringify(design.currentLoop.harmonics));
+      const gains = design.currentLoop.resonantGains;
+      design.currentLoop.harmonics.forEach((h, i) => {
+        const g = gains?.[i];
+        add(`currentLoop.resonantGains.h${h}`, `kr, h${h}`, typeof g === 'number' ? formatInDisplayUnit(g, RESONANT_GAIN_UNIT) : DESIGNED_BY_RULE, typeof g === 'number' ? String(g) : DESIGNED_BY_RULE);
+      });
+    }
+    if (group.id === 'reactive') add('reactiveFilter.order', 'Low-pass order', design.reactiveFilter.order === 2 ? '2nd order (Butterworth)' : '1st order', String(design.reactiveFilter.order));
+    groups.push({ title: group.title, rows });
   }
-  return out;
+  groups.push({ title: 'Target word size', rows: [{ key: 'fixedPoint.wordBits', group: 'Target word size', label: 'Word size', text: `${design.fixedPoint.wordBits}-bit`, exact: String(design.fixedPoint.wordBits) }] });
+  return groups;
+}
+
+function unitOfDimension(dimension: string): string | null {
+  return dimension === 'Ohm' ? 'Ω' : dimension === 'count' || dimension === 'gain' || dimension === 'ratio' ? null : dimension;
 }
 
 /**
- * Equality of two leaf values by their JSON text (numbers compare exactly, as stored).
- * @param x - a leaf.
- * @param y - another leaf.
- * @returns whether they are the same value.
+ * The gains in use per block, named and in their units.
+ * @param analysis - an analysis result.
+ * @param design - its design (harmonic orders of the resonant gains).
+ * @returns the rows, grouped by block.
  */
-export function sameValue(x: unknown, y: unknown): boolean {
-  return JSON.stringify(x ?? null) === JSON.stringify(y ?? null);
-}
-
-/**
- * Pairs two flattened maps by path, in the order of first appearance (before, then new paths of after).
- * @param before - leaves of the older revision.
- * @param after - leaves of the newer revision.
- * @returns one row per path.
- */
-export function pairLeaves(before: Map<string, unknown>, after: Map<string, unknown>): SideBySideRow[] {
-  const paths = [...before.keys(), ...[...after.keys()].filter((k) => !before.has(k))];
-  return paths.map((path) => {
-    const b = before.has(path) ? before.get(path) : undefined;
-    const a = after.has(path) ? after.get(path) : undefined;
-    return { path, before: b, after: a, changed: !sameValue(b, a) };
-  });
-}
-
-/**
- * Design inputs side by side.
- * @param before - the older design.
- * @param after - the newer design.
- * @returns rows per leaf path.
- */
-export function inputRows(before: DesignInput, after: DesignInput): SideBySideRow[] {
-  return pairLeaves(flattenLeaves(before), flattenLeaves(after));
-}
-
-function gainLeaves(analysis: AnalysisResult): Map<string, unknown> {
-  const out = new Map<string, unknown>();
+export function gainRows(analysis: AnalysisResult, design: DesignInput): DisplayRow[] {
+  const rows: DisplayRow[] = [];
   for (const block of analysis.blocks) {
-    for (const [key, value] of Object.entries(block.gains)) out.set(`${block.id}.${key}`, value);
-  }
-  return out;
-}
-
-/**
- * Gains in use per block, side by side.
- * @param before - analysis of the older revision.
- * @param after - analysis of the newer revision.
- * @returns rows `block.gain`.
- */
-export function gainRows(before: AnalysisResult, after: AnalysisResult): SideBySideRow[] {
-  return pairLeaves(gainLeaves(before), gainLeaves(after));
-}
-
-function coefficientLeaves(analysis: AnalysisResult, kind: 'float' | 'fixed'): Map<string, unknown> {
-  const out = new Map<string, unknown>();
-  for (const block of analysis.blocks) {
-    for (const section of block.sections) {
-      const key = `${block.id}/${section.role}`;
-      if (kind === 'float') {
-        out.set(`${key}.b`, section.b);
-        out.set(`${key}.a`, section.a);
+    for (const [key, value] of Object.entries(block.gains)) {
+      if (Array.isArray(value)) {
+        value.forEach((v, i) => {
+          const h = design.currentLoop.harmonics[i] ?? i + 1;
+          const { label, unit } = gainLabel(block.id, key, h);
+          rows.push({ key: `${block.id}.${key}.h${h}`, group: BLOCK_LABELS[block.id], label, text: withUnit(formatNumber(v, 5), unit), exact: formatExact(v) });
+        });
       } else {
-        out.set(`${key}.format`, section.fixed.qFormat);
-        out.set(`${key}.b`, section.fixed.b);
-        out.set(`${key}.a`, section.fixed.a);
+        const { label, unit } = gainLabel(block.id, key);
+        const text = unit === 'Hz' ? formatQuantity(value, 'Hz', 5) : withUnit(formatNumber(value, 5), unit);
+        rows.push({ key: `${block.id}.${key}`, group: BLOCK_LABELS[block.id], label, text, exact: formatExact(value) });
       }
     }
   }
-  return out;
+  return rows;
+}
+
+function withUnit(text: string, unit: string | null): string {
+  return unit ? `${text} ${unit}` : text;
 }
 
 /**
- * Section coefficients side by side, as doubles or as the quantized integers with their Q format.
- * @param before - analysis of the older revision.
- * @param after - analysis of the newer revision.
- * @param kind - `float` (b, a) or `fixed` (format, integer b, integer a).
- * @returns rows `block/section.b` etc.
+ * Section coefficients: the doubles to seven significant digits, or the quantized integers
+ * (exact) with their Q format; each section also names its discretization method.
+ * @param analysis - an analysis result.
+ * @param kind - `float` or `fixed`.
+ * @returns one row per section and coefficient vector.
  */
-export function coefficientRows(before: AnalysisResult, after: AnalysisResult, kind: 'float' | 'fixed'): SideBySideRow[] {
-  return pairLeaves(coefficientLeaves(before, kind), coefficientLeaves(after, kind));
-}
-
-function marginLeaves(analysis: AnalysisResult): Map<string, unknown> {
-  const out = new Map<string, unknown>();
-  for (const loop of analysis.loops) {
-    out.set(`${loop.id}.crossoverHz`, loop.crossoverHz);
-    out.set(`${loop.id}.phaseMarginDeg`, loop.phaseMarginDeg);
-    out.set(`${loop.id}.gainMarginDb`, loop.gainMarginDb);
-    out.set(`${loop.id}.peakSensitivity`, loop.peakSensitivity);
-    out.set(`${loop.id}.maxPoleRadius`, loop.maxPoleRadius);
-    out.set(`${loop.id}.stable`, loop.stable);
+export function coefficientRows(analysis: AnalysisResult, kind: 'float' | 'fixed'): DisplayRow[] {
+  const rows: DisplayRow[] = [];
+  for (const block of analysis.blocks) {
+    for (const section of block.sections) {
+      const group = sectionLabel(block.id, section.role, block.sections.length);
+      const key = `${block.id}/${section.role}`;
+      const vector = (label: string, values: readonly number[]) => ({
+        text: `[${values.map((v) => (kind === 'fixed' ? String(v) : formatNumber(v, 7))).join(', ')}]`,
+        exact: `[${values.map(String).join(', ')}]`,
+        label,
+      });
+      if (kind === 'float') {
+        rows.push({ key: `${key}.method`, group, label: 'method', text: methodLabel(block.method), exact: methodLabel(block.method) });
+        for (const [name, values] of [['b', section.b], ['a', section.a]] as const) rows.push({ key: `${key}.${name}`, group, ...vector(name, values) });
+      } else {
+        rows.push({ key: `${key}.format`, group, label: 'format', text: section.fixed.qFormat, exact: `${section.fixed.qFormat} (${section.fixed.wordBits}-bit, F = ${section.fixed.fracBits})` });
+        for (const [name, values] of [['b', section.fixed.b], ['a', section.fixed.a]] as const) rows.push({ key: `${key}.fixed.${name}`, group, ...vector(`${name} (integers)`, values) });
+      }
+    }
   }
-  return out;
+  return rows;
 }
 
 /**
- * Loop margins side by side.
- * @param before - analysis of the older revision.
- * @param after - analysis of the newer revision.
- * @returns rows `loop.metric`.
+ * Loop margins, named and in their units.
+ * @param analysis - an analysis result.
+ * @returns one row per loop and figure.
  */
-export function marginRows(before: AnalysisResult, after: AnalysisResult): SideBySideRow[] {
-  return pairLeaves(marginLeaves(before), marginLeaves(after));
-}
-
-function checkLeaves(analysis: AnalysisResult): Map<string, unknown> {
-  const out = new Map<string, unknown>();
-  for (const check of analysis.checks) out.set(check.id, `${check.severity}: ${check.message}`);
-  return out;
-}
-
-/**
- * Checks side by side by id: severity and message; absent on one side means added or removed.
- * @param before - analysis of the older revision.
- * @param after - analysis of the newer revision.
- * @returns rows per check id.
- */
-export function checkRows(before: AnalysisResult, after: AnalysisResult): SideBySideRow[] {
-  return pairLeaves(checkLeaves(before), checkLeaves(after));
+export function marginRows(analysis: AnalysisResult): DisplayRow[] {
+  return analysis.loops.flatMap((loop) => [
+    ...LOOP_METRICS.map((m) => ({
+      key: `${loop.id}.${m.key}`, group: LOOP_LABELS[loop.id], label: m.label,
+      text: loop[m.key] === null ? 'none' : formatQuantity(loop[m.key], m.unit, m.digits), exact: formatExact(loop[m.key], m.unit),
+    })),
+    { key: `${loop.id}.stable`, group: LOOP_LABELS[loop.id], label: 'verdict', text: loop.stable ? 'stable' : 'UNSTABLE', exact: String(loop.stable) },
+  ]);
 }
 
 /**
- * How a compared value reads in a cell: numbers to 7 significant digits (integers exact), arrays
- * comma-separated, absent as an em dash.
- * @param value - the value.
- * @returns display text.
+ * Checks as their messages with severity; the check id pairs the two revisions.
+ * @param analysis - an analysis result.
+ * @returns one row per check, errors first.
  */
-export function formatCell(value: unknown): string {
-  if (value === undefined) return '—';
-  if (value === null) return 'none';
-  if (typeof value === 'number') return Number.isInteger(value) ? String(value) : String(Number(value.toPrecision(7)));
-  if (Array.isArray(value)) return `[${value.map((v) => formatCell(v)).join(', ')}]`;
-  if (typeof value === 'object') return JSON.stringify(value);
-  return String(value);
+export function checkRows(analysis: AnalysisResult): DisplayRow[] {
+  const rank: Record<Severity, number> = { error: 0, warning: 1, info: 2 };
+  return [...analysis.checks].sort((a, b) => rank[a.severity] - rank[b.severity]).map((c) => ({
+    key: c.id, group: c.blockId ? BLOCK_LABELS[c.blockId as BlockId] : 'Plant and loops', label: SEVERITY_LABELS[c.severity],
+    text: c.message, exact: [c.message, c.remedy ? `Remedy: ${c.remedy}` : ''].filter(Boolean).join(' '), severity: c.severity,
+  }));
+}
+
+/**
+ * Pairs the rows of two revisions by key, in the order of the newer one (then rows only the
+ * older has). Equal text means equal to the reader: a difference only in the exact value is
+ * `below-precision`.
+ * @param before - rows of the older revision.
+ * @param after - rows of the newer revision.
+ * @returns the compared rows.
+ */
+export function compareRows(before: readonly DisplayRow[], after: readonly DisplayRow[]): CompareRow[] {
+  const older = new Map(before.map((r) => [r.key, r]));
+  const newer = new Map(after.map((r) => [r.key, r]));
+  const keys = [...after.map((r) => r.key), ...before.map((r) => r.key).filter((k) => !newer.has(k))];
+  return keys.map((key) => {
+    const b = older.get(key) ?? null;
+    const a = newer.get(key) ?? null;
+    const shown = (a ?? b) as DisplayRow;
+    let status: CompareStatus;
+    if (!b) status = 'added';
+    else if (!a) status = 'removed';
+    else if (a.text !== b.text || a.severity !== b.severity) status = 'changed';
+    else status = a.exact === b.exact ? 'same' : 'below-precision';
+    return { key, group: shown.group, label: shown.label, before: b, after: a, status };
+  });
 }
 
 /** Kinds of lines in a unified diff. */

@@ -40,3 +40,31 @@ export function xyData(x: readonly number[], y: readonly number[], scaleX = 1): 
   }
   return out;
 }
+
+/** Line styles of overlaid traces: the first (newer) solid, the second (older) dashed. */
+export const TRACE_LINE_TYPES = ['solid', 'dashed'] as const;
+
+/**
+ * CSV text (RFC 4180): a header line and one line per row; fields with a comma, quote or line
+ * break are quoted. Numbers are written in full precision.
+ * @param header - column names.
+ * @param rows - the rows.
+ * @returns the text, lines ended by CRLF.
+ */
+export function toCsv(header: readonly string[], rows: readonly (readonly (string | number | null)[])[]): string {
+  const field = (v: string | number | null): string => {
+    const text = v === null ? '' : String(v);
+    return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+  };
+  return [header, ...rows].map((row) => row.map(field).join(',')).join('\r\n') + '\r\n';
+}
+
+/**
+ * The unit written in parentheses in a response label (`inverter current (A) for a 1 A step` → `A`).
+ * @param label - the label of a time response.
+ * @returns the unit, or null when the label names none.
+ */
+export function unitOfLabel(label: string): string | null {
+  const match = /\(([^)]+)\)/.exec(label);
+  return match ? match[1] : null;
+}

@@ -1,7 +1,8 @@
-// Shapes an analysis result for the workspace tables: designed gains for the form's placeholders,
-// resonance landing per method, and the fixed-point rows with what is wrong in each.
+// Shapes an analysis result for the analysis tables: designed gains for the form's placeholders,
+// where each resonance lands per method, and the fixed-point rows with what is wrong in each.
 import type { AnalysisResult, BlockId, Check, SectionResult } from '../../shared/control';
-import { formatInUnit } from './units';
+import { formatNumber } from './format';
+import { sectionLabel } from './labels';
 
 const GAIN_PATHS: { block: BlockId; gain: string; path: string }[] = [
   { block: 'current-pr', gain: 'kp', path: 'currentLoop.kp' },
@@ -14,23 +15,25 @@ const GAIN_PATHS: { block: BlockId; gain: string; path: string }[] = [
 /**
  * The gains in use, as display texts keyed by the design-file path of their override.
  * @param result - an analysis result.
- * @returns texts such as `{ 'currentLoop.kp': '3.769911184' }`.
+ * @returns texts such as `{ 'currentLoop.kp': '3.77' }` (four significant digits).
  */
 export function designedGainTexts(result: AnalysisResult | null): Record<string, string> {
   const out: Record<string, string> = {};
   if (!result) return out;
   for (const { block, gain, path } of GAIN_PATHS) {
     const value = result.blocks.find((b) => b.id === block)?.gains[gain];
-    if (typeof value === 'number') out[path] = formatInUnit(Number(value.toPrecision(6)), { symbol: '', exponent: 0 });
+    if (typeof value === 'number') out[path] = formatNumber(value, 4);
   }
   const kr = result.blocks.find((b) => b.id === 'current-pr')?.gains.resonantGains;
-  if (Array.isArray(kr)) kr.forEach((v, i) => { out[`currentLoop.resonantGains.${i}`] = formatInUnit(Number(v.toPrecision(6)), { symbol: '', exponent: 0 }); });
+  if (Array.isArray(kr)) kr.forEach((v, i) => { out[`currentLoop.resonantGains.${i}`] = formatNumber(v, 4); });
   return out;
 }
 
-/** One row of the resonance-landing table. */
+/** One row of the resonance table. */
 export interface ResonanceRow {
   key: string;
+  /** Block and section in words. */
+  label: string;
   blockId: BlockId;
   role: string;
   designHz: number;
@@ -55,7 +58,7 @@ export function resonanceRows(result: AnalysisResult): { rows: ResonanceRow[]; m
       const byMethodHz = section.resonanceByMethodHz ?? {};
       for (const m of Object.keys(byMethodHz)) if (!methods.includes(m)) methods.push(m);
       const { design, discrete, fixed } = section.resonanceHz;
-      rows.push({ key: `${block.id}/${section.role}`, blockId: block.id, role: section.role, designHz: design, discreteHz: discrete, fixedHz: fixed, fixedDriftHz: fixed === null ? null : fixed - design, byMethodHz });
+      rows.push({ key: `${block.id}/${section.role}`, label: sectionLabel(block.id, section.role, block.sections.length), blockId: block.id, role: section.role, designHz: design, discreteHz: discrete, fixedHz: fixed, fixedDriftHz: fixed === null ? null : fixed - design, byMethodHz });
     }
   }
   return { rows, methods };
@@ -64,6 +67,8 @@ export function resonanceRows(result: AnalysisResult): { rows: ResonanceRow[]; m
 /** One row of the fixed-point table. */
 export interface WordRow {
   key: string;
+  /** Block and section in words. */
+  label: string;
   blockId: BlockId;
   section: SectionResult;
   /** Worst severity among the checks that concern this section. */
@@ -104,18 +109,6 @@ export function wordRows(result: AnalysisResult): WordRow[] {
   return result.blocks.flatMap((block) => block.sections.map((section) => {
     const related = checksForSection(result.checks, block.id, section.role, block.sections.length).filter((c) => c.severity !== 'info');
     const severity = related.some((c) => c.severity === 'error') ? 'error' : related.length ? 'warning' : null;
-    return { key: `${block.id}/${section.role}`, blockId: block.id, section, severity, findings: related.map((c) => c.message) };
+    return { key: `${block.id}/${section.role}`, label: sectionLabel(block.id, section.role, block.sections.length), blockId: block.id, section, severity, findings: related.map((c) => c.message) };
   }));
-}
-
-/**
- * A number for a table cell: fixed significant digits, "—" for null.
- * @param value - the number or null.
- * @param digits - significant digits.
- * @returns the text.
- */
-export function cell(value: number | null | undefined, digits = 5): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  if (value === 0) return '0';
-  return Math.abs(value) >= 1e6 || Math.abs(value) < 1e-4 ? value.toExponential(digits - 1) : String(Number(value.toPrecision(digits)));
 }

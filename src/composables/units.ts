@@ -1,5 +1,9 @@
 // Units at the UI edge (STYLE habit 5): engineers type "0.6 mH", "4.7 µF", "20 kHz"; the design
 // stores SI. Conversions divide or multiply by exact powers of ten so decimal inputs round once.
+// Writing numbers back as text lives in ./format.
+import type { DisplayUnit } from './format';
+
+export { formatInUnit, type DisplayUnit } from './format';
 
 /** Physical dimension of a form quantity, with its SI base symbol. */
 export type Dimension = 'H' | 'F' | 'Hz' | 'V' | 'VA' | 'Ohm' | 's' | 'deg' | 'ratio' | 'count' | 'gain';
@@ -22,12 +26,6 @@ const BASE_SYMBOLS: Record<Dimension, string[]> = {
   gain: [''],
 };
 
-/** A display unit: symbol shown beside the input and its power of ten relative to SI. */
-export interface DisplayUnit {
-  symbol: string;
-  exponent: number;
-}
-
 /**
  * Moves the decimal point of a decimal numeral by `exponent` places and reads it as a double:
  * one correctly rounded decimal-to-binary conversion, so "0.6" in mH is exactly the double 0.0006.
@@ -39,28 +37,6 @@ export function shiftDecimal(numeral: string, exponent: number): number {
   const match = /^([+-]?[\d.]+)(?:[eE]([+-]?\d+))?$/.exec(numeral.trim());
   if (!match) return Number.NaN;
   return Number(`${match[1]}e${Number(match[2] ?? 0) + exponent}`);
-}
-
-/**
- * Writes an SI value in a display unit: the shortest decimal of the double with its point moved,
- * so the text reads back to exactly the same double (showing a design never changes it).
- * @param valueSi - the SI value (null = empty text).
- * @param unit - the display unit.
- * @returns the text for the input.
- */
-export function formatInUnit(valueSi: number | null, unit: DisplayUnit): string {
-  if (valueSi === null || !Number.isFinite(valueSi)) return '';
-  if (valueSi === 0) return '0';
-  const [mantissa, exp] = valueSi.toExponential().split('e');
-  const negative = mantissa.startsWith('-');
-  const digits = mantissa.replace('-', '').replace('.', '');
-  const n = Number(exp) - unit.exponent;
-  const sign = negative ? '-' : '';
-  if (n < -6 || n > 20) return `${sign}${digits[0]}${digits.length > 1 ? `.${digits.slice(1)}` : ''}e${n}`;
-  if (n < 0) return `${sign}0.${'0'.repeat(-n - 1)}${digits}`;
-  const intPart = digits.slice(0, n + 1).padEnd(n + 1, '0');
-  const frac = digits.slice(n + 1);
-  return `${sign}${intPart}${frac ? `.${frac}` : ''}`;
 }
 
 /** Result of reading a typed quantity. */

@@ -10,7 +10,9 @@ export type RouteName =
   | 'designs'
   | 'design-workspace'
   | 'revision-history'
+  | 'revision'
   | 'revision-compare'
+  | 'release'
   | 'review-queue'
   | 'releases'
   | 'tokens'
@@ -23,7 +25,9 @@ export type RouteName =
 export interface RouteParamsByName {
   'design-workspace': { id: string };
   'revision-history': { id: string };
+  revision: { id: string };
   'revision-compare': { a: string; b: string };
+  release: { id: string };
   'not-found': { pathMatch: string[] };
 }
 
@@ -37,6 +41,8 @@ declare module 'vue-router' {
     navIcon?: string;
     /** Document title. */
     title?: string;
+    /** The page shows the safety caution in a footer the layout keeps clear of the content. */
+    safetyFooter?: boolean;
   }
 }
 
@@ -54,11 +60,13 @@ export const routes: RouteRecordRaw[] = [
       // Never rendered: the guard sends a signed-in user to their role's start page, others to sign-in.
       { path: '', name: 'home', component: () => import('../pages/NotFoundPage.vue'), meta: { roles: everyone } },
       { path: 'designs', name: 'designs', component: () => import('../pages/DesignsPage.vue'), meta: { roles: notTester, navLabel: 'Designs', navIcon: 'precision_manufacturing', title: 'Designs' } },
-      { path: 'designs/:id', name: 'design-workspace', component: () => import('../pages/DesignWorkspacePage.vue'), meta: { roles: ['engineer'], title: 'Design bench' } },
+      { path: 'designs/:id', name: 'design-workspace', component: () => import('../pages/DesignWorkspacePage.vue'), meta: { roles: ['engineer'], title: 'Design editor', safetyFooter: true } },
       { path: 'designs/:id/revisions', name: 'revision-history', component: () => import('../pages/RevisionHistoryPage.vue'), meta: { roles: notTester, title: 'Revisions' } },
+      { path: 'revisions/:id', name: 'revision', component: () => import('../pages/RevisionPage.vue'), meta: { roles: notTester, title: 'Revision', safetyFooter: true } },
       { path: 'revisions/:a/compare/:b', name: 'revision-compare', component: () => import('../pages/RevisionComparePage.vue'), meta: { roles: notTester, title: 'Compare revisions' } },
       { path: 'reviews', name: 'review-queue', component: () => import('../pages/ReviewQueuePage.vue'), meta: { roles: ['reviewer'], navLabel: 'Review queue', navIcon: 'fact_check', title: 'Review queue' } },
       { path: 'releases', name: 'releases', component: () => import('../pages/ReleasesPage.vue'), meta: { roles: everyone, navLabel: 'Released sets', navIcon: 'inventory_2', title: 'Released sets' } },
+      { path: 'releases/:id', name: 'release', component: () => import('../pages/ReleasePage.vue'), meta: { roles: everyone, title: 'Released set', safetyFooter: true } },
       { path: 'tokens', name: 'tokens', component: () => import('../pages/TokensPage.vue'), meta: { roles: ['tester', 'admin'], navLabel: 'Bench tokens', navIcon: 'key', title: 'Bench tokens' } },
       { path: 'admin/users', name: 'admin-users', component: () => import('../pages/AdminUsersPage.vue'), meta: { roles: ['admin'], navLabel: 'Accounts', navIcon: 'manage_accounts', title: 'Accounts' } },
       { path: 'admin/audit', name: 'admin-audit', component: () => import('../pages/AdminAuditPage.vue'), meta: { roles: ['admin'], navLabel: 'Audit trail', navIcon: 'history_edu', title: 'Audit trail' } },

@@ -3,7 +3,7 @@ import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import type { Release } from '../../shared/api/releases';
 import type { DownloadedFile, DownloadProgress } from '../api/client';
-import { createRelease, downloadReleaseBundle, listReleases } from '../api/releases';
+import { createRelease, downloadReleaseBundle, getRelease, listReleases, withdrawRelease } from '../api/releases';
 
 /** Released sets visible to everyone. */
 export const useReleasesStore = defineStore('releases', () => {
@@ -32,5 +32,19 @@ export const useReleasesStore = defineStore('releases', () => {
     return downloadReleaseBundle(id, onProgress);
   }
 
-  return { items, loaded, load, release, download };
+  /** Loads one release and keeps the list in step with it. */
+  async function loadOne(id: number): Promise<Release> {
+    const one = await getRelease(id);
+    items.value = items.value.map((r) => (r.id === one.id ? one : r));
+    return one;
+  }
+
+  /** Withdraws a release with a reason; it stays listed, marked. */
+  async function withdraw(id: number, reason: string): Promise<Release> {
+    const changed = await withdrawRelease(id, reason);
+    items.value = items.value.map((r) => (r.id === changed.id ? changed : r));
+    return changed;
+  }
+
+  return { items, loaded, load, loadOne, release, download, withdraw };
 });

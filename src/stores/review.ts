@@ -4,7 +4,7 @@ import { ref } from 'vue';
 import type { CreateReviewRequest, Review, RevisionDiff } from '../../shared/api/revisions';
 import { listDesigns } from '../api/designs';
 import { createReview, getRevisionDiff } from '../api/reviews';
-import { getRevision, listRevisions } from '../api/revisions';
+import { getRevision, listRevisions, type RevisionListItem } from '../api/revisions';
 import type { RevisionDetail, RevisionSummary } from '../api/types';
 
 /** One revision waiting for a review, with the design it belongs to. */
@@ -18,8 +18,8 @@ export interface QueueEntry {
 export const useReviewStore = defineStore('review', () => {
   /** Revisions in review, oldest submission first (first come, first reviewed). */
   const queue = ref<QueueEntry[]>([]);
-  /** The revision history of the design last loaded, newest first. */
-  const history = ref<RevisionSummary[]>([]);
+  /** The revision history of the design last loaded, newest first, with the reviews. */
+  const history = ref<RevisionListItem[]>([]);
   /** Design id the history belongs to. */
   const historyDesignId = ref<number | null>(null);
   /** Revisions loaded in full, by id. */
@@ -38,7 +38,7 @@ export const useReviewStore = defineStore('review', () => {
   }
 
   /** Loads the revision history of a design, newest first. */
-  async function loadHistory(designId: number): Promise<RevisionSummary[]> {
+  async function loadHistory(designId: number): Promise<RevisionListItem[]> {
     const rows = await listRevisions(designId);
     history.value = [...rows].sort((x, y) => y.number - x.number);
     historyDesignId.value = designId;

@@ -32,7 +32,7 @@ export function buildAnalysis(): AnalysisResult {
     ],
     plant: { ratedCurrentA: 14.3 },
     checks: [
-      { id: 'plant-inductor-drop', severity: 'info', message: 'Inductor drop is 4.8 % of grid voltage.', value: 0.048, limit: 0.05, unit: null },
+      { id: 'plant-inductor-drop', severity: 'info', message: 'Inductor drop is 4.8 % of grid voltage.', value: 0.048, limit: 0.05, unit: 'fraction' },
       { id: 'pr-h1-quantization-drift', severity: 'error', message: 'Resonance h1 moves 2.61 Hz in 16-bit fixed point.', value: 2.61, limit: 0.05, unit: 'Hz', blockId: 'current-pr', remedy: 'Use 32-bit words for the resonators.' },
       { id: 'pr-h3-deadband', severity: 'warning', message: 'Resonator h3 can stall 0.8 LSB off.', value: 0.8, limit: 0.5, unit: 'LSB', blockId: 'current-pr', remedy: null },
     ],

@@ -11,6 +11,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Booted } from '../../server/boot';
 import type { Role } from '../../shared/api/common';
+import { readZip } from '../export/helpers/unpack';
 import { buildDesign } from './factories';
 import { allTokens, bearer, startApp, tempDir } from './helpers';
 
@@ -162,6 +163,18 @@ describe.sequential('team walk', () => {
     expect(sha256(again.body)).toBe(s.sha);
   });
 
+  it('serves the report the bundle holds, byte for byte, to every role', async () => {
+    const zip = await api().get(`/api/releases/${s.releaseId}/bundle`).set('Authorization', bearer(t.tester)).buffer(true).parse(binary);
+    const inZip = (await readZip(zip.body)).find((e) => e.name.endsWith('/REPORT.md'));
+    expect(inZip).toBeDefined();
+    const res = await api().get(`/api/releases/${s.releaseId}/report`).set('Authorization', bearer(t.tester));
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toContain('text/markdown');
+    expect(res.text).toBe(inZip!.content.toString('utf8'));
+    expect(res.text).toContain('Walk unit');
+    expect((await api().get('/api/releases/999999/report').set('Authorization', bearer(t.tester))).status).toBe(404);
+  });
+
   it('a read-only token lists and pulls the release, and is refused on writes', async () => {
     const created = await api().post('/api/tokens').set('Authorization', bearer(t.tester)).send({ name: 'bench 2' });
     expect(created.status).toBe(201);
@@ -246,11 +259,15 @@ describe.sequential('team walk', () => {
     const mail = await api().get('/api/admin/mail?limit=500').set('Authorization', bearer(t.admin));
     expect(mail.status).toBe(200);
     const subjects = (to: string) => mail.body.filter((m: { to: string[] }) => m.to.includes(to)).map((m: { subject: string }) => m.subject);
-    expect(subjects('reviewer@varsmith.test')).toContain('[Varsmith] Walk unit revision 1 waits for review');
-    expect(subjects('engineer@varsmith.test')).toContain('[Varsmith] Walk unit revision 1 approved');
-    expect(subjects('tester@varsmith.test')).toContain('[Varsmith] Walk unit 1.0.0 released');
-    const released = mail.body.find((m: { subject: string }) => m.subject === '[Varsmith] Walk unit 1.0.0 released');
+    expect(subjects('reviewer@varsmith.test')).toContain('[Varsmith] Walk unit r1 waits for review');
+    expect(subjects('engineer@varsmith.test')).toContain('[Varsmith] Walk unit r1 approved');
+    expect(subjects('tester@varsmith.test')).toContain('[Varsmith] Walk unit 1.0.0 released (from r1)');
+    const released = mail.body.find((m: { subject: string }) => m.subject === '[Varsmith] Walk unit 1.0.0 released (from r1)');
     expect(released.text).toContain(s.sha);
+    // Every link lands on a page of the client: /revisions/<id> and /releases/<id>.
+    expect(released.text).toContain(`/releases/${s.releaseId}\n`);
+    const submitted = mail.body.find((m: { subject: string }) => m.subject === '[Varsmith] Walk unit r1 waits for review');
+    expect(submitted.text).toContain(`/revisions/${s.rev1}\n`);
     expect(released.from).toContain('varsmith');
   });
 

@@ -32,7 +32,7 @@ describe('analysis plots', () => {
     expectClose(Array.from(magnitude.data.filter((_, i) => i % 2 === 0)), response.frequencyHz, { rtol: 0 });
     expectClose(Array.from(phase.data.filter((_, i) => i % 2 === 1)), response.phaseDeg, { rtol: 0 });
     expect(magnitude.markLine.data).toContainEqual({ yAxis: 0, name: '0 dB' });
-    expect(magnitude.markLine.data).toContainEqual({ xAxis: 1000, name: 'fc 1000 Hz' });
+    expect(magnitude.markLine.data).toContainEqual({ xAxis: 1000, name: 'fc 1 kHz' });
     expect(phase.markLine.data).toContainEqual({ yAxis: -180, name: '−180°' });
     expect(phase.markPoint!.data[0].value).toBe('PM 90°');
     expectClose(phase.markPoint!.data[0].coord, [1000, -90], { rtol: 1e-12 });

@@ -1,5 +1,5 @@
 // The analysis tables: findings ordered by severity, loops with the unstable one flagged,
-// resonance landing per method, fixed-point rows highlighted by their section's checks.
+// where each resonance lands per method, fixed-point rows highlighted by their section's checks.
 import { describe, expect, it } from 'vitest';
 import { mount } from '@vue/test-utils';
 import { Quasar } from 'quasar';
@@ -26,7 +26,11 @@ describe('analysis tables', () => {
     expect(items.map((i) => i.attributes('data-severity'))).toEqual(['error', 'warning', 'info']);
     expect(items[0].text()).toContain('Remedy: Use 32-bit words');
     expect(items[0].text()).toContain('2.61 Hz');
-    expect(items[0].text()).toContain('limit 0.05 Hz');
+    expect(items[0].text()).toContain('limit 50 mHz');
+    // A fraction reads as percent, never as "0.048 fraction".
+    expect(items[2].text()).toContain('4.8 %');
+    expect(items[2].text()).toContain('limit 5 %');
+    expect(wrapper.text()).not.toContain('fraction');
     expect(wrapper.text()).toContain('1 error');
     expect(wrapper.text()).toContain('1 warning');
   });
@@ -47,14 +51,16 @@ describe('analysis tables', () => {
     expect(rows[0].text()).toContain('stable');
     expect(rows[1].text()).toContain('UNSTABLE');
     expect(rows[1].text()).toContain('none');
-    expect(rows[1].text()).toContain('no phase crossing below Nyquist');
+    expect(rows[1].find('[aria-label="no phase crossing below Nyquist"]').exists()).toBe(true);
     expect(rows[1].find('.vs-cell-error').exists()).toBe(true);
   });
 
   it('shows where each resonance lands per method and highlights the drifting one', () => {
     const wrapper = mount(AnalysisResonanceTable, { props: { result: buildAnalysis() }, global });
     const head = wrapper.find('thead').text();
-    for (const m of ['tustin', 'tustin prewarp', 'zoh']) expect(head).toContain(m);
+    for (const m of ['Tustin', 'Tustin, prewarped', 'Zero-order hold']) expect(head).toContain(m);
+    // The product's own names, not option keywords.
+    for (const keyword of ['tustin', 'prewarp ', 'zoh']) expect(head).not.toContain(keyword);
     const rows = wrapper.findAll('tbody tr');
     expect(rows).toHaveLength(2);
     expect(rows[0].text()).toContain('52.61');
@@ -78,6 +84,6 @@ describe('analysis tables', () => {
   });
 
   it('gives the designed gains for the form placeholders', () => {
-    expect(designedGainTexts(buildAnalysis())).toEqual({ 'currentLoop.kp': '3.76991', 'currentLoop.resonantGains.0': '150', 'currentLoop.resonantGains.1': '40' });
+    expect(designedGainTexts(buildAnalysis())).toEqual({ 'currentLoop.kp': '3.77', 'currentLoop.resonantGains.0': '150', 'currentLoop.resonantGains.1': '40' });
   });
 });

@@ -1,9 +1,10 @@
-// Row builders of the revision comparison. Unified diffs come from jsdiff (the `diff` package,
+// Row builders of the revision comparison (form labels and units; changes below display precision
+// kept apart). Unified diffs come from jsdiff (the `diff` package,
 // createTwoFilesPatch), an independent implementation of the GNU unified format, so the line
 // numbering is checked against text whose lines we know.
 import { describe, expect, it } from 'vitest';
 import { createTwoFilesPatch } from 'diff';
-import { checkRows, coefficientRows, flattenLeaves, formatCell, inputRows, marginRows, pairLeaves, parseUnifiedDiff } from '../../../src/components/RevisionDiffRows';
+import { checkRows, coefficientRows, compareRows, designInputGroups, marginRows, parseUnifiedDiff } from '../../../src/components/RevisionDiffRows';
 import { newDesignTemplate } from '../../../src/stores/designs';
 import { buildAnalysis } from '../analysisFixture';
 
@@ -49,53 +50,71 @@ describe('parseUnifiedDiff', () => {
   });
 });
 
-describe('side-by-side rows', () => {
-  it('flattens nested inputs and keeps number arrays whole', () => {
-    const leaves = flattenLeaves(newDesignTemplate('A'));
-    expect(leaves.get('filter.inductanceH')).toBe(0.0006);
-    expect(leaves.get('currentLoop.harmonics')).toEqual([1, 3, 5, 7]);
-    expect(leaves.get('currentLoop.kp')).toBeNull();
+describe('rows in the form\'s words and units', () => {
+  const keyPath = /\b[a-z]+[A-Z][A-Za-z]*\.[a-z]+[A-Za-z]*\b/; // e.g. dcLink.capacitanceF
+
+  it('shows the inputs with the form\'s labels and display units, never a key path', () => {
+    const design = { ...newDesignTemplate('A'), dcLink: { capacitanceF: 0.00068, voltageRefV: 200 } };
+    const rows = designInputGroups(design).flatMap((g) => g.rows);
+    const cap = rows.find((r) => r.key === 'dcLink.capacitanceF')!;
+    expect(cap.label).toBe('DC-link capacitance');
+    expect(cap.text).toBe('680 µF');
+    expect(cap.exact).toBe('0.00068 F');
+    expect(rows.find((r) => r.key === 'filter.inductanceH')!.text).toBe('0.6 mH');
+    expect(rows.find((r) => r.key === 'currentLoop.kp')!.text).toBe('designed by rule');
+    expect(rows.find((r) => r.key === 'pll.sogiGain')!.text).toBe('1.41421');
+    for (const r of rows) {
+      expect(r.label).not.toMatch(keyPath);
+      expect(r.text).not.toMatch(/[{}]/);
+    }
   });
 
-  it('marks exactly the changed inputs, including a topology switch that adds and drops keys', () => {
+  it('counts a change only when the shown digits change; smaller ones are "below precision"', () => {
+    const before = newDesignTemplate('A');
+    const after = { ...newDesignTemplate('A'), voltageLoop: { ...before.voltageLoop, crossoverHz: 12.0000001 }, dcLink: { capacitanceF: 0.0015, voltageRefV: 200 } };
+    const rows = compareRows(designInputGroups(before).flatMap((g) => g.rows), designInputGroups(after).flatMap((g) => g.rows));
+    const byKey = new Map(rows.map((r) => [r.key, r]));
+    expect(byKey.get('dcLink.capacitanceF')!.status).toBe('changed');
+    expect(byKey.get('dcLink.capacitanceF')!.after!.text).toBe('1500 µF');
+    expect(byKey.get('voltageLoop.crossoverHz')!.status).toBe('below-precision');
+    expect(byKey.get('voltageLoop.crossoverHz')!.after!.exact).toBe('12.0000001 Hz');
+    expect(rows.filter((r) => r.status === 'changed')).toHaveLength(1);
+  });
+
+  it('marks a topology switch: fields added and removed, labelled', () => {
     const before = newDesignTemplate('A');
     const after = { ...newDesignTemplate('A'), filter: { topology: 'LCL' as const, inverterInductanceH: 0.0004, gridInductanceH: 0.0002, capacitanceF: 4.7e-6, dampingResistanceOhm: 1.5, resistanceOhm: 0.03 } };
-    const changed = inputRows(before, after).filter((r) => r.changed).map((r) => r.path).sort();
-    expect(changed).toEqual(['filter.capacitanceF', 'filter.dampingResistanceOhm', 'filter.gridInductanceH', 'filter.inductanceH', 'filter.inverterInductanceH', 'filter.topology']);
-    const dropped = inputRows(before, after).find((r) => r.path === 'filter.inductanceH')!;
-    expect(dropped.after).toBeUndefined();
-    expect(formatCell(dropped.after)).toBe('—');
+    const rows = compareRows(designInputGroups(before).flatMap((g) => g.rows), designInputGroups(after).flatMap((g) => g.rows));
+    const status = Object.fromEntries(rows.filter((r) => r.status !== 'same').map((r) => [r.label, r.status]));
+    expect(status).toEqual({
+      Topology: 'changed', 'Inverter-side inductance L1': 'added', 'Grid-side inductance L2': 'added', 'Filter capacitance Cf': 'added',
+      'Damping resistance Rd': 'added', Inductance: 'removed',
+    });
   });
 
-  it('pairs coefficients per block and section, double and integer', () => {
+  it('pairs coefficients per section, doubles to 7 digits and integers exactly', () => {
     const x = buildAnalysis();
     const y = buildAnalysis();
     y.blocks[0].sections[1].fixed.a = [16384, -32760, 16381];
-    const fixedChanged = coefficientRows(x, y, 'fixed').filter((r) => r.changed);
-    expect(fixedChanged.map((r) => r.path)).toEqual(['current-pr/resonant-h1.a']);
-    expect(formatCell(fixedChanged[0].after)).toBe('[16384, -32760, 16381]');
-    expect(coefficientRows(x, y, 'float').every((r) => !r.changed)).toBe(true);
+    const fixed = compareRows(coefficientRows(x, 'fixed'), coefficientRows(y, 'fixed')).filter((r) => r.status === 'changed');
+    expect(fixed.map((r) => [r.group, r.label, r.after!.text])).toEqual([['Current controller (PR) · resonator, fundamental', 'a (integers)', '[16384, -32760, 16381]']]);
+    expect(compareRows(coefficientRows(x, 'float'), coefficientRows(y, 'float')).every((r) => r.status === 'same')).toBe(true);
+    const h1 = coefficientRows(x, 'float').find((r) => r.key === 'current-pr/resonant-h1.a')!;
+    expect(h1.text).toBe('[1, -1.9996, 0.9998]');
+    expect(coefficientRows(x, 'float').find((r) => r.key === 'current-pr/resonant-h1.method')!.text).toBe('Tustin, prewarped');
   });
 
-  it('shows margins and checks added or removed', () => {
+  it('shows margins in their units and checks as their messages with severity', () => {
     const x = buildAnalysis();
     const y = buildAnalysis();
     y.loops[0].phaseMarginDeg = 47.5;
     y.checks = y.checks.slice(1);
-    expect(marginRows(x, y).filter((r) => r.changed).map((r) => r.path)).toEqual(['current.phaseMarginDeg']);
-    const removed = checkRows(x, y).filter((r) => r.changed);
-    expect(removed).toHaveLength(1);
-    expect(removed[0].after).toBeUndefined();
-  });
-
-  it('treats a value going from null to a number as a change', () => {
-    const rows = pairLeaves(new Map([['kp', null]]), new Map([['kp', 3.5]]));
-    expect(rows[0].changed).toBe(true);
-    expect(formatCell(rows[0].before)).toBe('none');
-  });
-
-  it('formats doubles to 7 significant digits and integers exactly', () => {
-    expect(formatCell(1.9995734123)).toBe('1.999573');
-    expect(formatCell(1073741824)).toBe('1073741824');
+    const margins = compareRows(marginRows(x), marginRows(y)).filter((r) => r.status === 'changed');
+    expect(margins.map((r) => [r.group, r.label, r.before!.text, r.after!.text])).toEqual([['Current loop (PR)', 'phase margin', '52.3°', '47.5°']]);
+    const checks = compareRows(checkRows(x), checkRows(y)).filter((r) => r.status !== 'same');
+    expect(checks).toHaveLength(1);
+    expect(checks[0].status).toBe('removed');
+    expect(checks[0].before!.text).toBe('Inductor drop is 4.8 % of grid voltage.');
+    expect(checks[0].before!.severity).toBe('info');
   });
 });

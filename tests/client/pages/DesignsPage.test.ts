@@ -22,7 +22,7 @@ describe('DesignsPage', () => {
     const { root } = await mountApp('/designs');
     await waitFor(() => tableText(root).includes('Harbour cabinet LCL'));
     const text = tableText(root);
-    expect(text).toContain('in-review');
+    expect(text).toContain('in review');
     expect(text).toContain('r2');
     expect(text).toContain('approved');
     expect(text).toContain('1.2.0');

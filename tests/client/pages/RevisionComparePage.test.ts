@@ -1,16 +1,18 @@
-// The comparison page: two revisions side by side, the change list, the highlighted header diff,
-// and the verdict panel (disabled with the reason on one's own revision).
-import { describe, expect, it } from 'vitest';
+// The comparison page: two revisions compared in the form's labels and engineering units (no key
+// paths, no JSON, changes below display precision folded away), the overlaid plots, the
+// highlighted header diff, and the verdict panel (disabled with the reason on one's own revision).
+import { describe, expect, it, vi } from 'vitest';
 import { http, HttpResponse } from 'msw';
 import { createTwoFilesPatch } from 'diff';
 import type { RevisionDetail } from '../../../src/api/types';
 import type { RevisionDiff } from '../../../shared/api/revisions';
 import { newDesignTemplate } from '../../../src/stores/designs';
-import { buildAnalysis } from '../analysisFixture';
+import { buildAnalysis, buildAnalysisWithPlots } from '../analysisFixture';
 import { buildRevisionSummary } from '../fixtures';
 import { mountApp, settle, waitFor } from '../mountApp';
 import { signInAs, TEST_USERS } from '../session';
 import { server } from '../setup';
+import type { AnalysisRunner } from '../../../src/composables/useLiveAnalysis';
 
 function buildDetail(overrides: Partial<RevisionDetail>): RevisionDetail {
   return {
@@ -20,10 +22,13 @@ function buildDetail(overrides: Partial<RevisionDetail>): RevisionDetail {
 }
 
 const r1 = buildDetail({ id: 10, number: 1, status: 'superseded', summary: 'First set' });
-const r2Design = { ...newDesignTemplate('Bay 4 rig'), filter: { topology: 'L' as const, inductanceH: 0.00075, resistanceOhm: 0.03 } };
+const base = newDesignTemplate('Bay 4 rig');
+// The inductance changes; the voltage-loop crossover moves by rounding noise only.
+const r2Design = { ...base, filter: { topology: 'L' as const, inductanceH: 0.00075, resistanceOhm: 0.03 }, voltageLoop: { ...base.voltageLoop, crossoverHz: 12.000001 } };
 const r2Analysis = buildAnalysis();
 r2Analysis.blocks[0].gains.kp = 4.712388980384690;
 r2Analysis.blocks[0].sections[1].fixed.a = [16384, -32760, 16381];
+r2Analysis.checks.push({ id: 'loop-current-phase-margin', severity: 'warning', message: 'Current loop phase margin 41.0° (target ≥ 45°).', value: 41, limit: 45, unit: 'deg', remedy: 'Lower the crossover target.' });
 const r2 = buildDetail({ id: 11, number: 2, status: 'in-review', summary: 'Bigger inductor', design: r2Design, analysis: r2Analysis });
 
 const headerDiff = createTwoFilesPatch('r1/coefficients.h', 'r2/coefficients.h', '#define VS_PR_KP 3.77\n#define VS_PR_H1_A1 -32761\n', '#define VS_PR_KP 4.71\n#define VS_PR_H1_A1 -32760\n');
@@ -44,43 +49,60 @@ function answerComparison(): void {
   );
 }
 
+const { ChartStub } = vi.hoisted(() => ({ ChartStub: { name: 'VChartStub', props: { option: { type: Object, required: true } }, template: '<div class="chart-stub" :data-series="option.series.map((s) => s.name).join(\';\')" />' } }));
+// happy-dom has no canvas: the chart is replaced and the options it would draw are checked.
+vi.mock('vue-echarts', () => ({ default: ChartStub }));
+
+/** Recomputed plot data for both revisions (a canned result, as the worker would answer). */
+const plotRunner: AnalysisRunner = async (request) => ({ id: request.id, ok: true, result: buildAnalysisWithPlots(), elapsedMs: 0 });
+
 async function clickTab(root: HTMLElement, test: string): Promise<void> {
   root.querySelector<HTMLElement>(`[data-test="${test}"]`)!.click();
   await settle();
 }
 
 describe('RevisionComparePage', () => {
-  it('lays inputs, gains and integer coefficients side by side with the changed rows marked', async () => {
+  it('speaks in the form\'s labels and units: only real changes, rounding noise folded away', async () => {
     signInAs('reviewer');
     answerComparison();
     const { root } = await mountApp('/revisions/10/compare/11');
     await waitFor(() => root.querySelector('[data-test="side-inputs"]') !== null);
     expect(root.querySelector('[data-test="compare-title"]')!.textContent).toContain('r1 → r2');
-    const inputs = root.querySelector('[data-test="side-inputs"]')!;
-    // Inputs start with only the changes: exactly the inductance.
-    const changedInputs = [...inputs.querySelectorAll('tbody tr[data-changed="yes"]')].map((tr) => tr.textContent ?? '');
-    expect(changedInputs).toHaveLength(1);
-    expect(changedInputs[0]).toContain('filter.inductanceH');
-    expect(changedInputs[0]).toContain('0.0006');
-    expect(changedInputs[0]).toContain('0.00075');
+    const changedInputs = [...root.querySelectorAll('[data-test="side-inputs"] tbody tr[data-changed="yes"]')].map((tr) => tr.textContent ?? '');
+    expect(changedInputs).toEqual([expect.stringMatching(/Inductance\s*0\.6 mH\s*0\.75 mH/)]);
+    // 12 Hz → 12.000001 Hz reads the same: folded into one line, exact values on hover.
+    const folded = root.querySelector<HTMLElement>('[data-test="side-inputs-folded"]')!;
+    expect(folded.textContent).toContain('1 change below display precision');
+    folded.click();
+    await settle();
+    const noise = root.querySelector('[data-test="side-inputs"] tr[data-status="below-precision"]')!;
+    expect(noise.textContent).toContain('Target crossover');
+    expect(noise.querySelectorAll('td')[2].getAttribute('title')).toBe('12.000001 Hz');
     const gains = [...root.querySelectorAll('[data-test="side-gains"] tbody tr[data-changed="yes"]')].map((tr) => tr.textContent ?? '');
-    expect(gains).toHaveLength(1);
-    expect(gains[0]).toContain('3.769911');
-    expect(gains[0]).toContain('4.712389');
+    expect(gains).toEqual([expect.stringMatching(/proportional gain kp\s*3\.7699 V\/A\s*4\.7124 V\/A/)]);
     const fixed = [...root.querySelectorAll('[data-test="side-fixed"] tbody tr[data-changed="yes"]')].map((tr) => tr.textContent ?? '');
     expect(fixed).toEqual([expect.stringContaining('[16384, -32760, 16381]')]);
     expect(root.querySelectorAll('[data-test="side-float"] tbody tr[data-changed="yes"]')).toHaveLength(0);
+    // Checks as their messages with severity.
+    const checks = root.querySelector('[data-test="side-checks"] tr[data-status="added"]')!;
+    expect(checks.textContent).toContain('Warning: Current loop phase margin 41.0° (target ≥ 45°).');
+    // No key path and no JSON anywhere in the comparison.
+    const text = root.querySelector('[data-test="compare-changes"]')!.textContent ?? '';
+    expect(text).not.toMatch(/\b[a-z]+[A-Z][A-Za-z]*\.[a-z][A-Za-z]*\b/);
+    expect(text).not.toMatch(/[{}"]/);
   });
 
-  it('shows the server change list and the header diff with added and removed lines highlighted', async () => {
+  it('overlays both revisions\' plots and shows the header diff with added and removed lines', async () => {
     signInAs('reviewer');
     answerComparison();
-    const { root } = await mountApp('/revisions/10/compare/11');
-    await waitFor(() => root.querySelector('[data-test="compare-tab-changes"]') !== null);
-    await clickTab(root, 'compare-tab-changes');
-    await waitFor(() => root.querySelector('[data-test="changes-fixed"]') !== null);
-    expect(root.querySelector('[data-test="changes-fixed"]')!.textContent).toContain('-32761');
-    await clickTab(root, 'compare-tab-header');
+    const { root } = await mountApp('/revisions/10/compare/11', { analysisRunner: plotRunner });
+    await waitFor(() => root.querySelector('[data-test="tab-plots"]') !== null);
+    await clickTab(root, 'tab-plots');
+    await waitFor(() => root.querySelector('.chart-stub') !== null);
+    // The Bode plot draws the newer revision solid and the older one dashed on the same axes.
+    const series = root.querySelector('.chart-stub')!.getAttribute('data-series')!.split(';');
+    expect(series).toEqual(['r2 |L|', 'r2 ∠L', 'r1 |L|', 'r1 ∠L']);
+    await clickTab(root, 'tab-header');
     await waitFor(() => root.querySelector('[data-test="header-diff"]') !== null);
     const lines = [...root.querySelectorAll('[data-test="header-diff"] [data-kind]')];
     const removed = lines.filter((l) => l.getAttribute('data-kind') === 'removed').map((l) => l.textContent ?? '');

@@ -120,14 +120,17 @@ describe('AdminAuditPage', () => {
     server.use(
       http.get('*/api/admin/users', () => HttpResponse.json([])),
       http.get('*/api/admin/audit', () => HttpResponse.json([
-        { id: 1, actor: { kind: 'user', id: 1, label: 'Ena Engineer' }, action: 'release.create', targetType: 'release', targetId: 3, details: { version: '1.0.0' }, createdAt: '2026-12-01T00:00:00Z' },
-        { id: 2, actor: { kind: 'token', id: 4, label: 'HIL rack 2' }, action: 'release.download', targetType: 'release', targetId: 3, details: {}, createdAt: '2026-12-01T01:00:00Z' },
+        { id: 1, actor: { kind: 'user', id: 1, label: 'Ena Engineer' }, action: 'release.create', targetType: 'release', targetId: 3, targetLabel: 'Bay 4 rig 1.0.0', details: { version: '1.0.0' }, createdAt: '2026-12-01T00:00:00Z' },
+        { id: 2, actor: { kind: 'token', id: 4, label: 'HIL rack 2' }, action: 'release.download', targetType: 'release', targetId: 3, targetLabel: 'Bay 4 rig 1.0.0', details: {}, createdAt: '2026-12-01T01:00:00Z' },
       ])),
     );
     const { root } = await mountApp('/admin/audit');
     await waitFor(() => (root.querySelector('[data-test="audit-table"]')?.textContent ?? '').includes('release.create'));
     const text = root.querySelector('[data-test="audit-table"]')!.textContent!;
-    expect(text).toContain('release #3');
+    // The target by name, linked to its page; never a database id.
+    expect(text).toContain('release Bay 4 rig 1.0.0');
+    expect(text).not.toContain('#3');
+    expect(root.querySelector('[data-test="audit-target-1"]')!.getAttribute('href')).toBe('/releases/3');
     expect(text).toContain('HIL rack 2 (token)');
     expect(text).toContain('version=1.0.0');
   });
