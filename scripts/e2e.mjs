@@ -2,15 +2,18 @@
 // built client. Each role signs in through the form and tours its pages; an engineer creates a
 // design, sees the plots drawn, submits; a reviewer approves; the engineer releases; a tester
 // downloads the bundle (bytes checked against the release's SHA-256) and pulls it with a bench
-// token through the copied command. Any console error or 5xx fails the step it happens in.
-// Screenshots go to .e2e-artifacts/. Prints `N passed, M failed`; exits non-zero on failure.
+// token through the copied command; the reviewer compares r1 and r2 in the form's words with the
+// plots overlaid and sends r2 back; the author reads the comment; every link in the captured
+// e-mails opens its page; at 1024 px no main page scrolls sideways and the safety footer covers
+// nothing. Any console error or 5xx fails the step it happens in. Screenshots of every page go to
+// .e2e-artifacts/. Prints `N passed, M failed`; exits non-zero on failure.
 import { createHash } from 'node:crypto';
 import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import {
-  ARTIFACTS, ROOT, buildClientIfNeeded, createDesign, field, instrumentCanvas, launchBrowser,
+  ARTIFACTS, ROOT, buildClientIfNeeded, canvasInk, createDesign, field, instrumentCanvas, launchBrowser,
   measureKeystrokeToPlots, showPlots, signIn, startServer, watchPage,
 } from '../tests/e2e/harness.mjs';
 
@@ -98,6 +101,7 @@ async function main() {
   let tokenSecret = null;
   let pullLine = null;
   let firstRevisionId = null;
+  let compareUrl = null;
   try {
     await step('the built client references no other host (dist/ HTML and CSS)', async () => {
       const dist = path.resolve('dist');
@@ -281,11 +285,24 @@ async function main() {
       await entry.click();
       await reviewer.locator('[data-test="review-compare"]').click();
       await reviewer.waitForURL(/\/revisions\/\d+\/compare\/\d+$/);
-      const changed = reviewer.locator('[data-test="side-inputs"] tr[data-changed="yes"]', { hasText: 'currentLoop.crossoverHz' });
+      const changed = reviewer.locator('[data-test="side-inputs"] tr[data-changed="yes"]', { hasText: 'Target crossover' }).first();
       await changed.waitFor({ timeout: 15_000 });
-      expect((await changed.textContent()).includes('800'), 'the changed crossover does not show 800');
+      expect((await changed.textContent()).includes('800 Hz'), 'the changed crossover does not read 800 Hz');
+      const changesText = await reviewer.locator('[data-test="compare-changes"]').textContent();
+      const keyPath = changesText.match(/\b[a-z]+[A-Z][A-Za-z]*\.[a-z][A-Za-z]*\b/);
+      expect(!keyPath, `the comparison shows a raw key path: ${keyPath?.[0]}`);
+      expect(!/[{}"]/.test(changesText), 'the comparison shows JSON');
+      compareUrl = reviewer.url();
       await shot(reviewer, 'reviewer-compare-side-by-side');
-      await reviewer.locator('[data-test="compare-tab-header"]').click();
+      await reviewer.locator('[data-test="tab-plots"]').click();
+      await reviewer.locator('[data-test="compare-plots"] canvas').first().waitFor({ timeout: 30_000 });
+      let ink = await canvasInk(reviewer);
+      for (let i = 0; i < 50 && ink.inkFraction < 0.002; i += 1) { await reviewer.waitForTimeout(200); ink = await canvasInk(reviewer); }
+      expect(ink.inkFraction >= 0.002, `the overlaid plots are blank (ink ${ink.inkFraction})`);
+      const legend = await reviewer.evaluate(() => document.querySelector('[data-test="compare-plots"]')?.textContent ?? '');
+      expect(legend.includes('solid') && legend.includes('dashed'), 'the overlay does not say which revision is which');
+      await shot(reviewer, 'reviewer-compare-plots-overlaid');
+      await reviewer.locator('[data-test="tab-header"]').click();
       await reviewer.locator('[data-test="header-diff"], [data-test="header-diff-empty"]').first().waitFor();
       expect(await reviewer.locator('[data-test="header-diff"] [data-kind="added"]').count() > 0, 'the header diff shows no added line for a changed gain');
       await shot(reviewer, 'reviewer-compare-header-diff');
@@ -294,6 +311,39 @@ async function main() {
       await reviewer.locator('[data-test="review-send-back"]').click();
       const sent = await verdict;
       expect(sent.status() === 201 || sent.status() === 200, `send back answered ${sent.status()}`);
+    });
+
+    await step('the author reads the send-back comment on the workspace and in the history', async () => {
+      const page = pages.engineer;
+      await page.goto(`${origin}/designs/${designId}`);
+      const banner = page.locator('[data-test="review-comment-banner"]');
+      await banner.waitFor({ timeout: 15_000 });
+      expect((await banner.textContent()).includes('Keep 1 kHz; the margin was fine.'), 'the workspace does not show the comment');
+      await shot(page, 'engineer-workspace-sent-back');
+      await page.goto(`${origin}/designs/${designId}/revisions`);
+      const reviews = page.locator('[data-test="history-reviews-2"]');
+      await reviews.waitFor({ timeout: 15_000 });
+      expect((await reviews.textContent()).includes('Keep 1 kHz'), 'the history does not show the comment');
+      const releaseLink = page.locator('[data-test="history-release-link-1"]');
+      expect((await releaseLink.textContent()).includes(release.version), 'the history does not link r1 to its release');
+      await shot(page, 'engineer-history-with-reviews');
+    });
+
+    await step('the release page: r1 and 1.0.0 linked both ways, full SHA-256, curl and pull lines, the report', async () => {
+      const page = pages.engineer;
+      await page.goto(`${origin}/releases/${release.id}`);
+      await page.locator('[data-test="release-title"]').waitFor({ timeout: 15_000 });
+      expect((await page.locator('[data-test="release-sha256"]').textContent()).trim() === release.sha256, 'the page does not show the full SHA-256');
+      const curl = (await page.locator(`[data-test="curl-line-${release.id}"]`).textContent()).trim();
+      expect(curl.includes('-H "Authorization: Bearer <token>"') && curl.includes(`/api/releases/${release.id}/bundle`) && curl.includes(release.sha256), `unexpected curl line: ${curl}`);
+      await page.locator('[data-test="release-report-body"] table').first().waitFor({ timeout: 15_000 });
+      expect(await page.locator('[data-test="release-report-body"] script').count() === 0, 'the report carries a script element');
+      await shot(page, 'engineer-release-page');
+      await page.locator('[data-test="release-revision-link"]').click();
+      await page.waitForURL(/\/revisions\/\d+$/);
+      await page.locator('[data-test="revision-release-link"]').waitFor({ timeout: 15_000 });
+      expect((await page.locator('[data-test="revision-release-link"]').textContent()).includes(release.version), 'the revision does not link back to its release');
+      await shot(page, 'engineer-revision-page');
     });
 
     await step('admin sees the release in the audit trail and the mails in the outbox', async () => {
@@ -308,6 +358,121 @@ async function main() {
       await page.locator('[data-test="mail-list"] [data-test^="mail-"]').first().click();
       await page.locator('[data-test="mail-message"]').waitFor();
       await shot(page, 'admin-mail-message');
+    });
+
+    await step('every link in the captured e-mails opens its page for the recipient', async () => {
+      const adminToken = await pages.admin.evaluate(() => window.sessionStorage.getItem('varsmith.session'));
+      const mail = await (await fetch(`${origin}/api/admin/mail?limit=500`, { headers: { Authorization: `Bearer ${adminToken}` } })).json();
+      const links = new Set();
+      for (const m of mail) for (const hit of m.text.matchAll(/https?:\/\/\S+?\/(revisions|releases)\/\d+(?=\s|$)/g)) links.add(hit[0]);
+      expect(links.size >= 3, `expected links to revisions and releases in the mail, found ${[...links].join(', ')}`);
+      let n = 0;
+      for (const link of links) {
+        const isRelease = /\/releases\//.test(link);
+        const page = isRelease ? pages.tester : pages.reviewer;
+        await page.goto(link);
+        await page.locator(isRelease ? '[data-test="release-title"]' : '[data-test="revision-title"]').waitFor({ timeout: 15_000 });
+        expect(!(await page.content()).includes('Nothing here'), `${link} lands on "Nothing here"`);
+        n += 1;
+        await shot(page, `mail-link-${n}-${isRelease ? 'release' : 'revision'}`);
+      }
+      process.stdout.write(`        ${links.size} e-mail links opened their pages\n`);
+    });
+
+    await step('a new LCL design sized from the rating names its rules and opens with no warning', async () => {
+      const page = pages.engineer;
+      await page.goto(`${origin}/designs`);
+      await page.locator('[data-test="new-design"]').click();
+      await field(page, 'new-design-name').fill(`${designName} LCL`);
+      await page.locator('[data-test="new-design-topology"] button', { hasText: 'LCL filter' }).click();
+      const sizing = page.locator('[data-test="new-design-sizing"]');
+      await sizing.waitFor();
+      const rules = await sizing.textContent();
+      for (const words of ['5 % of grid voltage', 'at most 5 % of the rating', 'Liserre', 'half the sampling rate']) expect(rules.includes(words), `the sizing does not name "${words}"`);
+      await shot(page, 'engineer-new-design-lcl');
+      await page.locator('[data-test="create-design"]').click();
+      await page.waitForURL(/\/designs\/\d+$/, { timeout: 15_000 });
+      await page.locator('[data-test="findings"]').waitFor({ timeout: 30_000 });
+      const chips = await page.locator('.q-chip').allTextContents();
+      expect(chips.some((c) => /0 errors/.test(c)) && chips.some((c) => /0 warnings/.test(c)), `the new design starts with findings: ${chips.join(', ')}`);
+      await shot(page, 'engineer-new-lcl-workspace');
+    });
+
+    await step('at 1024 px no main page scrolls sideways, the footer covers nothing, the menus stay on screen', async () => {
+      const routes = {
+        engineer: ['/designs', `/designs/${designId}`, `/designs/${designId}/revisions`, '/releases', `/releases/${release.id}`, `/revisions/${firstRevisionId}`],
+        reviewer: ['/reviews', '/designs', `/designs/${designId}/revisions`, new URL(compareUrl).pathname, `/revisions/${firstRevisionId}`, '/releases'],
+        tester: ['/releases', `/releases/${release.id}`, '/tokens'],
+        admin: ['/designs', '/releases', '/tokens', '/admin/users', '/admin/audit', '/admin/mail'],
+      };
+      const problems = [];
+      for (const [role, list] of Object.entries(routes)) {
+        const page = pages[role];
+        await page.setViewportSize({ width: 1024, height: 768 });
+        for (const route of list) {
+          await page.goto(`${origin}${route}`);
+          await page.waitForLoadState('networkidle');
+          await page.waitForTimeout(300);
+          const layout = await page.evaluate(() => {
+            const width = window.innerWidth;
+            const scrolls = document.documentElement.scrollWidth > width;
+            // Anything drawn past the right edge that no scrolling box of its own contains.
+            const clipped = [];
+            for (const el of document.querySelectorAll('body *')) {
+              const r = el.getBoundingClientRect();
+              if (r.width === 0 || r.height === 0 || r.right <= width + 1) continue;
+              let boxed = false;
+              for (let p = el.parentElement; p && p !== document.body; p = p.parentElement) {
+                const ox = getComputedStyle(p).overflowX;
+                if ((ox === 'auto' || ox === 'scroll' || ox === 'hidden') && p.getBoundingClientRect().right <= width + 1) { boxed = true; break; }
+              }
+              if (!boxed) clipped.push(`${el.tagName.toLowerCase()}.${[...el.classList].join('.')} right=${Math.round(r.right)}`);
+            }
+            const account = document.querySelector('[data-test="account-menu"]')?.getBoundingClientRect();
+            const footer = document.querySelector('.q-footer')?.getBoundingClientRect() ?? null;
+            window.scrollTo(0, document.documentElement.scrollHeight);
+            const container = document.querySelector('.q-page-container');
+            const lastContent = [...(container?.querySelectorAll('*') ?? [])].filter((e) => e.getBoundingClientRect().height > 0 && e.children.length === 0).map((e) => e.getBoundingClientRect().bottom);
+            const footerAfter = document.querySelector('.q-footer')?.getBoundingClientRect() ?? null;
+            return {
+              scrolls, clipped: clipped.slice(0, 3),
+              accountVisible: account ? account.right <= width + 1 && account.left >= 0 : false,
+              footerCovers: footerAfter ? Math.max(...lastContent, 0) > footerAfter.top + 1 : false,
+              hasFooter: footer !== null,
+            };
+          });
+          if (layout.scrolls) problems.push(`${role} ${route}: the page scrolls sideways`);
+          if (layout.clipped.length) problems.push(`${role} ${route}: drawn past the right edge: ${layout.clipped.join('; ')}`);
+          if (!layout.accountVisible) problems.push(`${role} ${route}: the account menu is off screen`);
+          if (layout.footerCovers) problems.push(`${role} ${route}: the safety footer covers content at the end of the page`);
+          await page.evaluate(() => window.scrollTo(0, 0));
+          await page.screenshot({ path: path.join(ARTIFACTS, `1024-${role}${route.replace(/\//g, '-')}.png`) });
+        }
+        const pull = role === 'tester' ? await page.evaluate(async (id) => {
+          const b = document.querySelector(`[data-test="toggle-pull-${id}"]`);
+          return b ? b.getBoundingClientRect().right <= window.innerWidth : null;
+        }, release.id) : true;
+        if (pull === false) problems.push('tester: the pull button is clipped at 1024 px');
+        await page.setViewportSize({ width: 1440, height: 900 });
+      }
+      expect(problems.length === 0, problems.join('\n      '));
+    });
+
+    await step('the engineer withdraws the release with a reason; the tester sees it withdrawn with the reason', async () => {
+      const page = pages.engineer;
+      await page.goto(`${origin}/releases/${release.id}`);
+      await page.locator('[data-test="release-withdraw"]').click();
+      await field(page, 'withdraw-reason', 'textarea').fill('Superseded on the bench by the 800 Hz trial; do not load.');
+      const answer = page.waitForResponse((r) => r.request().method() === 'POST' && /\/api\/releases\/\d+\/withdraw$/.test(r.url()), { timeout: 30_000 });
+      await page.locator('[data-test="withdraw-confirm"]').click();
+      expect((await answer).status() === 200, 'withdraw refused');
+      await page.locator('[data-test="release-withdrawn"]').waitFor();
+      const tester = pages.tester;
+      await tester.goto(`${origin}/releases/${release.id}`);
+      const banner = tester.locator('[data-test="release-withdrawn"]');
+      await banner.waitFor({ timeout: 15_000 });
+      expect((await banner.textContent()).includes('Superseded on the bench'), 'the tester does not see the reason');
+      await shot(tester, 'tester-release-withdrawn');
     });
   } finally {
     await browser.close().catch(() => {});

@@ -1,6 +1,7 @@
 import type { BlockResult, Check, FixedCoefficients, FixedSectionAnalysis, SectionKind } from './types';
 import { resonanceHzFromDenominator } from './resonance';
 import { scaleByPowerOfTwo } from './quantize';
+import { sectionName } from './names';
 
 /** What fixed-point analysis needs to know about a section. */
 export interface SectionForFixedAnalysis {
@@ -363,7 +364,7 @@ export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedP
   const checks: Check[] = [];
   const ts = context.samplePeriodS;
   const fullScale = 2 ** (context.wordBits - 1) - 1;
-  const wordRemedy = context.wordBits < 32 ? 'use a 32-bit word (fixedPoint.wordBits = 32)' : null;
+  const wordRemedy = context.wordBits < 32 ? 'use the 32-bit word size' : null;
   const join = (parts: (string | null)[]): string => {
     const list = parts.filter((p): p is string => p !== null);
     const text = list.join(', or ');
@@ -375,7 +376,7 @@ export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedP
     for (const section of block.sections) {
       const fixed = section.fixed;
       const prefix = block.sections.length > 1 ? `${block.id}-${section.role}` : block.id;
-      const where = block.sections.length > 1 ? `${block.id} ${section.role}` : block.id;
+      const where = sectionName(block.id, section.role, block.sections.length);
       const make = (id: string, severity: Check['severity'], message: string, value: number | null, limit: number | null, unit: string | null, remedy: string | null): Check => ({
         id, severity, message, value: finiteOrNull(value), limit: finiteOrNull(limit), unit, blockId: block.id, remedy,
       });
@@ -398,7 +399,7 @@ export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedP
         const limitHz = isSogi ? SOGI_DRIFT_FRACTION_OF_HALF_BANDWIDTH * halfBandwidthHz : halfBandwidthHz > 0 ? RESONATOR_DRIFT_FRACTION_OF_HALF_BANDWIDTH * halfBandwidthHz : IDEAL_RESONATOR_DRIFT_LIMIT_HZ;
         const harmonic = /^resonant-h(\d+)$/.exec(section.role)?.[1];
         const id = isSogi ? 'sogi-quantization-drift' : harmonic ? `pr-h${harmonic}-quantization-drift` : `${prefix}-quantization-drift`;
-        const remedy = join([wordRemedy, 'store 2 + a1 and 1 - a2 separately with their own scaling (split feedback)', 'a lower sampling rate for this block', isSogi ? 'a larger SOGI gain (wider band-pass)' : 'a wider resonator (larger resonantBandwidthHz)']);
+        const remedy = join([wordRemedy, 'store 2 + a1 and 1 - a2 separately with their own scaling (split feedback)', 'a lower sampling rate for this block', isSogi ? 'a larger SOGI gain (wider band-pass)' : 'a wider resonator (a larger resonant bandwidth)']);
         let check: Check;
         if (designHz === null || designHz === undefined) {
           check = make(id, 'error', `${where}: no design frequency known for this resonant section.`, null, limitHz, 'Hz', remedy);

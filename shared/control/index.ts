@@ -17,3 +17,4 @@ export * from './timeResponse';
 export * from './loops';
 export * from './signals';
 export * from './filterSizing';
+export * from './names';

@@ -5,7 +5,7 @@
 import type { AnalysisResult, BlockId, DesignInput, Severity } from '../../shared/control';
 import { FIELD_GROUPS, RESONANT_GAIN_UNIT } from '../composables/designFields';
 import { formatExact, formatInDisplayUnit, formatNumber, formatQuantity } from '../composables/format';
-import { BLOCK_LABELS, gainLabel, LOOP_LABELS, LOOP_METRICS, methodLabel, sectionLabel, SEVERITY_LABELS } from '../composables/labels';
+import { BLOCK_LABELS, gainLabel, LOOP_LABELS, LOOP_METRICS, methodLabel, sectionLabel } from '../composables/labels';
 
 /** One shown value of a revision. */
 export interface DisplayRow {
@@ -166,16 +166,17 @@ export function marginRows(analysis: AnalysisResult): DisplayRow[] {
  */
 export function checkRows(analysis: AnalysisResult): DisplayRow[] {
   const rank: Record<Severity, number> = { error: 0, warning: 1, info: 2 };
+  const groups: Record<Severity, string> = { error: 'Errors', warning: 'Warnings', info: 'Notes (within their limits)' };
   return [...analysis.checks].sort((a, b) => rank[a.severity] - rank[b.severity]).map((c) => ({
-    key: c.id, group: c.blockId ? BLOCK_LABELS[c.blockId as BlockId] : 'Plant and loops', label: SEVERITY_LABELS[c.severity],
+    key: c.id, group: groups[c.severity], label: c.blockId ? BLOCK_LABELS[c.blockId as BlockId] : 'Plant and loops',
     text: c.message, exact: [c.message, c.remedy ? `Remedy: ${c.remedy}` : ''].filter(Boolean).join(' '), severity: c.severity,
   }));
 }
 
 /**
- * Pairs the rows of two revisions by key, in the order of the newer one (then rows only the
- * older has). Equal text means equal to the reader: a difference only in the exact value is
- * `below-precision`.
+ * Pairs the rows of two revisions by key, in the order of the newer one, with rows only the older
+ * has placed where they stood in it. Equal text means equal to the reader: a difference only in
+ * the exact value is `below-precision`.
  * @param before - rows of the older revision.
  * @param after - rows of the newer revision.
  * @returns the compared rows.
@@ -183,7 +184,21 @@ export function checkRows(analysis: AnalysisResult): DisplayRow[] {
 export function compareRows(before: readonly DisplayRow[], after: readonly DisplayRow[]): CompareRow[] {
   const older = new Map(before.map((r) => [r.key, r]));
   const newer = new Map(after.map((r) => [r.key, r]));
-  const keys = [...after.map((r) => r.key), ...before.map((r) => r.key).filter((k) => !newer.has(k))];
+  const olderIndex = new Map(before.map((r, i) => [r.key, i]));
+  const keys: string[] = [];
+  let nextOlder = 0;
+  const flushOlderOnly = (upTo: number) => {
+    for (; nextOlder < upTo; nextOlder += 1) if (!newer.has(before[nextOlder].key)) keys.push(before[nextOlder].key);
+  };
+  for (const row of after) {
+    const at = olderIndex.get(row.key);
+    if (at !== undefined && at >= nextOlder) {
+      flushOlderOnly(at);
+      nextOlder = at + 1;
+    }
+    keys.push(row.key);
+  }
+  flushOlderOnly(before.length);
   return keys.map((key) => {
     const b = older.get(key) ?? null;
     const a = newer.get(key) ?? null;

@@ -106,6 +106,18 @@ export interface DesignTexts {
   /** Per-harmonic gain texts, aligned with the harmonics as typed. */
   resonantGains: string[];
   values: Record<string, string>;
+  /**
+   * Values shown shortened (√2 reads `1.41421`): while the text is unchanged the design keeps the
+   * exact stored value, so opening and saving a design never changes it.
+   */
+  exact?: Record<string, { text: string; valueSi: number }>;
+}
+
+/** Significant digits above which a stored value is shown shortened in its field. */
+export const FIELD_MAX_DIGITS = 8;
+
+function significantDigits(text: string): number {
+  return text.replace(/^-/, '').replace(/e.*$/, '').replace('.', '').replace(/^0+/, '').length;
 }
 
 function getPath(object: unknown, path: string): unknown {
@@ -129,9 +141,21 @@ function setPath(object: Record<string, unknown>, path: string, value: unknown):
  */
 export function designToTexts(design: DesignInput): DesignTexts {
   const values: Record<string, string> = {};
+  const exact: Record<string, { text: string; valueSi: number }> = {};
   for (const field of Object.values(FIELD_BY_PATH)) {
     const raw = getPath(design, field.path);
-    values[field.path] = typeof raw === 'number' ? formatInUnit(raw, field.unit) : '';
+    if (typeof raw !== 'number') {
+      values[field.path] = '';
+      continue;
+    }
+    const full = formatInUnit(raw, field.unit);
+    if (significantDigits(full) > FIELD_MAX_DIGITS) {
+      const shown = formatInUnit(Number(raw.toPrecision(6)), field.unit);
+      values[field.path] = shown;
+      exact[field.path] = { text: shown, valueSi: raw };
+    } else {
+      values[field.path] = full;
+    }
   }
   const gains = design.currentLoop.resonantGains;
   return {
@@ -142,6 +166,7 @@ export function designToTexts(design: DesignInput): DesignTexts {
     harmonics: design.currentLoop.harmonics.join(', '),
     resonantGains: design.currentLoop.harmonics.map((_, i) => (gains && typeof gains[i] === 'number' ? formatInUnit(gains[i], RESONANT_GAIN_UNIT) : '')),
     values,
+    exact,
   };
 }
 
@@ -163,7 +188,9 @@ export function readDesignTexts(texts: DesignTexts): ReadTexts {
   setPath(candidate, 'filter.topology', texts.topology);
   for (const field of Object.values(FIELD_BY_PATH)) {
     if (field.topology && field.topology !== texts.topology) continue;
-    const parsed = parseQuantity(texts.values[field.path] ?? '', field.dimension, field.unit);
+    const text = texts.values[field.path] ?? '';
+    const kept = texts.exact?.[field.path];
+    const parsed = kept && kept.text === text ? { ok: true as const, valueSi: kept.valueSi } : parseQuantity(text, field.dimension, field.unit);
     if (!parsed.ok) {
       errors[field.path] = parsed.message;
       setPath(candidate, field.path, Number.NaN);

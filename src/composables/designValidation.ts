@@ -2,6 +2,27 @@
 // read errors first, then parseDesign's issues, both keyed by the design-file path.
 import type { DesignInput } from '../../shared/control';
 import { parseDesign } from '../../shared/api/design';
+import { FIELD_BY_PATH } from './designFields';
+import { formatInUnit } from './format';
+
+const RANGE = /^must lie in ([[(])([^,]+), ([^\]]+)\]\s*(\S*)$/;
+
+/**
+ * A schema range rule in the field's display unit: "must lie in (1e-7, 1] H" on an mH field
+ * reads "must be above 0.0001 mH and at most 1000 mH".
+ * @param path - the design-file path of the field.
+ * @param message - the schema's message.
+ * @returns the message in the form's words.
+ */
+export function inFieldUnits(path: string, message: string): string {
+  const field = FIELD_BY_PATH[path];
+  const match = RANGE.exec(message);
+  if (!field || !match) return message;
+  const [, open, low, high] = match;
+  const text = (v: string) => `${formatInUnit(Number(v), field.unit)}${field.unit.symbol ? ` ${field.unit.symbol}` : ''}`;
+  const [lo, hi] = [text(low), text(high)];
+  return `must be ${open === '(' ? 'above' : 'at least'} ${lo} and at most ${hi}`;
+}
 
 /** Outcome of validating a candidate. */
 export interface DesignValidation {
@@ -21,7 +42,7 @@ export function validateCandidate(candidate: unknown, readErrors: Record<string,
   if (!result.ok) {
     for (const issue of result.issues) {
       const path = issue.path === '' ? '(design)' : issue.path;
-      if (!(path in errors)) errors[path] = issue.message;
+      if (!(path in errors)) errors[path] = inFieldUnits(path, issue.message);
     }
   }
   const clean = Object.keys(readErrors).length === 0 && result.ok;

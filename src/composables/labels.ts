@@ -1,7 +1,7 @@
 // The product's own words for the identifiers of the analysis result (CONTRACT section 3 keys
 // stay as they are in the JSON; this is only what the pages show): loops, blocks, sections,
 // discretization methods, gains with their units, revision states.
-import type { BlockId, LoopId, Severity } from '../../shared/control';
+import { BLOCK_NAMES, harmonicName, sectionName, sectionRoleName, type BlockId, type LoopId, type Severity } from '../../shared/control';
 import type { RevisionStatus } from '../api/types';
 
 /** Loop names, the same on every page. */
@@ -11,15 +11,8 @@ export const LOOP_LABELS: Record<LoopId, string> = {
   pll: 'PLL',
 };
 
-/** Controller block names. */
-export const BLOCK_LABELS: Record<BlockId, string> = {
-  'current-pr': 'Current controller (PR)',
-  'voltage-pi': 'DC-link voltage PI',
-  'pll-pi': 'PLL loop filter (PI)',
-  'sogi-d': 'SOGI, in-phase output',
-  'sogi-q': 'SOGI, quadrature output',
-  'reactive-lpf': 'Reactive-current low-pass',
-};
+/** Controller block names (the core's, so check messages and pages agree). */
+export const BLOCK_LABELS: Record<BlockId, string> = BLOCK_NAMES;
 
 /** Discretization methods by their result key, in the product's words. */
 export const METHOD_LABELS: Record<string, string> = {
@@ -78,40 +71,12 @@ export function methodLabel(method: string): string {
   return words.charAt(0).toUpperCase() + words.slice(1);
 }
 
-/**
- * An ordinal for a harmonic order: `fundamental`, `3rd harmonic`, `11th harmonic`.
- * @param h - the harmonic order.
- * @returns the words.
- */
-export function harmonicLabel(h: number): string {
-  if (h === 1) return 'fundamental';
-  const tens = h % 100;
-  const suffix = tens >= 11 && tens <= 13 ? 'th' : ({ 1: 'st', 2: 'nd', 3: 'rd' } as Record<number, string>)[h % 10] ?? 'th';
-  return `${h}${suffix} harmonic`;
-}
-
-/**
- * A section's role in words: `resonant-h3` reads `resonator, 3rd harmonic`.
- * @param role - the section role of the result.
- * @returns the words.
- */
-export function sectionRoleLabel(role: string): string {
-  const h = /^resonant-h(\d+)$/.exec(role);
-  if (h) return `resonator, ${harmonicLabel(Number(h[1]))}`;
-  if (role === 'pi') return 'PI';
-  return role.replace(/-/g, ' ');
-}
-
-/**
- * Where a section sits: the block alone when it has one section, else block and section.
- * @param blockId - the block.
- * @param role - the section role.
- * @param sectionsInBlock - how many sections the block has.
- * @returns e.g. `Current controller (PR) · resonator, 3rd harmonic`.
- */
-export function sectionLabel(blockId: BlockId, role: string, sectionsInBlock: number): string {
-  return sectionsInBlock > 1 ? `${BLOCK_LABELS[blockId]} · ${sectionRoleLabel(role)}` : BLOCK_LABELS[blockId];
-}
+/** A harmonic order in words (`fundamental`, `3rd harmonic`). */
+export const harmonicLabel = harmonicName;
+/** A section role in words (`resonator, 3rd harmonic`). */
+export const sectionRoleLabel = sectionRoleName;
+/** Where a section sits (`Current controller (PR) · resonator, 3rd harmonic`). */
+export const sectionLabel = sectionName;
 
 /** A gain of a block as shown: its name and the unit keyword of its value. */
 export interface GainLabel {

@@ -86,6 +86,10 @@ describe('rows in the form\'s words and units', () => {
     const after = { ...newDesignTemplate('A'), filter: { topology: 'LCL' as const, inverterInductanceH: 0.0004, gridInductanceH: 0.0002, capacitanceF: 4.7e-6, dampingResistanceOhm: 1.5, resistanceOhm: 0.03 } };
     const rows = compareRows(designInputGroups(before).flatMap((g) => g.rows), designInputGroups(after).flatMap((g) => g.rows));
     const status = Object.fromEntries(rows.filter((r) => r.status !== 'same').map((r) => [r.label, r.status]));
+    // A dropped field stays where it stood: the L inductance between the topology and the series resistance.
+    const order = rows.map((r) => r.label);
+    expect(order.indexOf('Inductance')).toBeGreaterThan(order.indexOf('Topology'));
+    expect(order.indexOf('Inductance')).toBeLessThan(order.indexOf('Series resistance'));
     expect(status).toEqual({
       Topology: 'changed', 'Inverter-side inductance L1': 'added', 'Grid-side inductance L2': 'added', 'Filter capacitance Cf': 'added',
       'Damping resistance Rd': 'added', Inductance: 'removed',
@@ -116,5 +120,6 @@ describe('rows in the form\'s words and units', () => {
     expect(checks[0].status).toBe('removed');
     expect(checks[0].before!.text).toBe('Inductor drop is 4.8 % of grid voltage.');
     expect(checks[0].before!.severity).toBe('info');
+    expect(checks[0].group).toBe('Notes (within their limits)');
   });
 });

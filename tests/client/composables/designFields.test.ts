@@ -34,6 +34,17 @@ describe('design texts', () => {
     expect(c.fixedPoint.wordBits).toBe(32);
   });
 
+  it('shows a long stored value shortened and keeps it exact until the text is edited', () => {
+    const texts = designToTexts(design);
+    // sqrt(2) = 1.4142135623730951 is shown to six digits ...
+    expect(texts.values['pll.sogiGain']).toBe('1.41421');
+    // ... and reads back bit-exact while untouched (so showing a design never changes it),
+    expect((readDesignTexts(texts).candidate as unknown as typeof design).pll.sogiGain).toBe(Math.SQRT2);
+    // while a typed value is taken as typed.
+    texts.values['pll.sogiGain'] = '1.5';
+    expect((readDesignTexts(texts).candidate as unknown as typeof design).pll.sogiGain).toBe(1.5);
+  });
+
   it('accepts typed units other than the displayed one', () => {
     const texts = designToTexts(design);
     texts.values['filter.inductanceH'] = '450 µH';

@@ -84,6 +84,8 @@ describe('DesignWorkspacePage', { timeout: 30000 }, () => {
     const store = useDesignStore(pinia);
     await typeInto('filter.inductanceH', '-0.6');
     await waitFor(() => store.draftInvalid && fieldError('filter.inductanceH') !== '');
+    // The schema's SI range (1e-7, 1] H, said in the field's own unit.
+    expect(fieldError('filter.inductanceH')).toBe('must be above 0.0001 mH and at most 1000 mH');
     await typeInto('filter.inductanceH', '0.6');
     await typeInto('sampling.switchingFrequencyHz', '0.2');
     await waitFor(() => store.draftInvalid);

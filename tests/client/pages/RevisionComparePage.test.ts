@@ -61,7 +61,7 @@ async function clickTab(root: HTMLElement, test: string): Promise<void> {
   await settle();
 }
 
-describe('RevisionComparePage', () => {
+describe('RevisionComparePage', { timeout: 30000 }, () => {
   it('speaks in the form\'s labels and units: only real changes, rounding noise folded away', async () => {
     signInAs('reviewer');
     answerComparison();

@@ -114,6 +114,34 @@ describe('AdminUsersPage', () => {
   });
 });
 
+describe('AdminUserCreateDialog', () => {
+  it('clears a field\'s error as soon as the field is put right (no stale "must not be empty")', async () => {
+    signInAs('admin');
+    let posted = false;
+    server.use(
+      http.get('*/api/admin/users', () => HttpResponse.json([])),
+      http.post('*/api/admin/users', () => { posted = true; return HttpResponse.json({}, { status: 201 }); }),
+    );
+    const { root } = await mountApp('/admin/users');
+    await waitFor(() => root.querySelector('[data-test="admin-new-user"]') !== null);
+    root.querySelector<HTMLElement>('[data-test="admin-new-user"]')!.click();
+    await waitFor(() => document.querySelector('[data-test="admin-user-dialog"]') !== null);
+    const dialog = document.querySelector('[data-test="admin-user-dialog"]')!;
+    dialog.querySelector('form')!.dispatchEvent(new Event('submit'));
+    await settle();
+    const messageOf = (test: string) => input(dialog, test).closest('.q-field')?.querySelector('.q-field__messages')?.textContent?.trim() ?? '';
+    expect(messageOf('admin-user-name')).not.toBe('');
+    expect(messageOf('admin-user-email')).not.toBe('');
+    const name = input(dialog, 'admin-user-name');
+    name.value = 'Noor Bench';
+    name.dispatchEvent(new Event('input'));
+    await settle();
+    expect(messageOf('admin-user-name')).toBe('');
+    expect(messageOf('admin-user-email')).not.toBe('');
+    expect(posted).toBe(false);
+  });
+});
+
 describe('AdminAuditPage', () => {
   it('loads the log and shows actor, action and target', async () => {
     signInAs('admin');
