@@ -4,6 +4,7 @@
 // are refused, as the API refuses them.
 import { describe, expect, it, vi } from 'vitest';
 import { http, HttpResponse } from 'msw';
+import type { RevisionListItem } from '../../../src/api/revisions';
 import type { RevisionDetail } from '../../../src/api/types';
 import type { AnalysisRunner } from '../../../src/composables/useLiveAnalysis';
 import { newDesignTemplate } from '../../../src/stores/designs';
@@ -29,7 +30,7 @@ function detail(overrides: Partial<RevisionDetail> = {}): RevisionDetail {
   };
 }
 
-function answer(revision: RevisionDetail, history = [{ ...revision, reviews: revision.reviews }]): void {
+function answer(revision: RevisionDetail, history: RevisionListItem[] = [{ ...revision, reviews: revision.reviews }]): void {
   server.use(
     http.get(`*/api/revisions/${revision.id}`, () => HttpResponse.json(revision)),
     http.get(`*/api/designs/${revision.designId}/revisions`, () => HttpResponse.json(history)),
