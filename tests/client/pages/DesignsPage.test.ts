@@ -15,7 +15,7 @@ function tableText(root: HTMLElement): string {
   return root.querySelector('[data-test="designs-table"]')?.textContent ?? '';
 }
 
-describe('DesignsPage', () => {
+describe('DesignsPage', { timeout: 30000 }, () => {
   it('lists designs with status, latest revision and release, owner', async () => {
     signInAs('engineer');
     server.use(http.get('*/api/designs', () => HttpResponse.json(rows)));
@@ -85,6 +85,46 @@ describe('DesignsPage', () => {
     await waitFor(() => router.currentRoute.value.name === 'design-workspace');
     expect(created!.design.name).toBe('Pilot rack 2');
     expect(router.currentRoute.value.params.id).toBe('42');
+  });
+
+  it('creates a design as a copy of another, reading its saved values', async () => {
+    signInAs('engineer');
+    let created: { design: { name: string; filter: { topology: string } } } | null = null;
+    const source = buildDesignDetail({ id: 5, name: 'Quay 2 LCL', design: { ...buildDesignDetail().design, name: 'Quay 2 LCL', filter: { topology: 'LCL', inverterInductanceH: 1e-3, gridInductanceH: 5e-4, capacitanceF: 8.2e-6, dampingResistanceOhm: 2, resistanceOhm: 0.05 } } });
+    server.use(
+      http.get('*/api/designs', () => HttpResponse.json([source])),
+      http.get('*/api/designs/5', () => HttpResponse.json(source)),
+      http.post('*/api/designs', async ({ request }) => {
+        created = (await request.json()) as typeof created;
+        return HttpResponse.json(buildDesignDetail({ id: 43, name: created!.design.name }), { status: 201 });
+      }),
+      http.get('*/api/designs/43', () => HttpResponse.json(buildDesignDetail({ id: 43 }))),
+    );
+    const { root, router } = await mountApp('/designs');
+    await waitFor(() => root.querySelector('[data-test="new-design"]') !== null);
+    (root.querySelector('[data-test="new-design"]') as HTMLElement).click();
+    await waitFor(() => document.querySelector('[data-test="new-design-name"]') !== null);
+    const name = document.querySelector<HTMLInputElement>('[data-test="new-design-name"] input, input[data-test="new-design-name"]')!;
+    name.value = 'Quay 3 LCL';
+    name.dispatchEvent(new Event('input'));
+    // The rating start names its rules ...
+    expect(document.querySelector('[data-test="new-design-sizing"]')!.textContent).toContain('5 % of grid voltage');
+    // ... the copy start reads the chosen design when confirmed.
+    [...document.querySelectorAll<HTMLElement>('[data-test="new-design-start"] .q-radio')].find((r) => r.textContent?.includes('Copy'))!.click();
+    await settle();
+    const dialog = document.querySelector('[data-test="new-design-dialog"]')!;
+    dialog.querySelector('form')!.dispatchEvent(new Event('submit'));
+    await settle();
+    expect(created).toBeNull();
+    expect(dialog.textContent).toContain('Pick the design to copy.');
+    (dialog.querySelector('[data-test="new-design-source"]') as HTMLElement).click();
+    await waitFor(() => [...document.querySelectorAll('.q-item')].some((i) => i.textContent?.includes('Quay 2 LCL')));
+    [...document.querySelectorAll<HTMLElement>('.q-item')].find((i) => i.textContent?.includes('Quay 2 LCL'))!.click();
+    await settle();
+    dialog.querySelector('form')!.dispatchEvent(new Event('submit'));
+    await waitFor(() => router.currentRoute.value.name === 'design-workspace');
+    expect(created!.design.name).toBe('Quay 3 LCL');
+    expect(created!.design.filter.topology).toBe('LCL');
   });
 
   it('refuses the designs list to a tester (sent to released sets)', async () => {
