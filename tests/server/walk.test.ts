@@ -280,6 +280,12 @@ describe.sequential('team walk', () => {
     const downloads = audit.body.filter((e: { action: string; targetId: number }) => e.action === 'release.download' && e.targetId === s.releaseId);
     expect(downloads.length).toBeGreaterThanOrEqual(3);
     expect(downloads.some((e: { actor: { kind: string } }) => e.actor.kind === 'token')).toBe(true);
+    // Targets by name, not database id.
+    const labelOf = (action: string) => audit.body.find((e: { action: string }) => e.action === action)?.targetLabel;
+    expect(labelOf('release.create')).toBe('Walk unit 1.0.0');
+    expect(audit.body.filter((e: { action: string }) => e.action === 'revision.submit').map((e: { targetLabel: string }) => e.targetLabel)).toContain('Walk unit r1');
+    expect(audit.body.filter((e: { action: string }) => e.action === 'design.create').map((e: { targetLabel: string }) => e.targetLabel)).toContain('Walk unit');
+    expect(labelOf('user.role-change')).toMatch(/@/);
     const filtered = await api().get('/api/admin/audit?action=release.create').set('Authorization', bearer(t.admin));
     expect(filtered.body.every((e: { action: string }) => e.action === 'release.create')).toBe(true);
   });
