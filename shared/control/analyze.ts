@@ -2,15 +2,18 @@
  * The whole pipeline for one design: gains, discrete sections, fixed point, loops, plant and
  * checks, as a `varsmith-analysis/1` result (CONTRACT section 3). Pure and deterministic.
  */
-import { forEachStepSample, lowPassPrewarped, piTustin, resonatorPrewarped, sectionResponse, sogiPrewarped, type SectionPair } from './blocks';
-import { designGains, type DesignedGains } from './designRules';
-import { resonanceByMethodHz } from './discretize';
-import { analyzeFixedSection, fixedPointChecks, quantizedResonanceHz } from './fixedPoint';
+import { forEachStepSample, sectionResponse, type SectionPair } from './blocks';
+import { designGains } from './designRules';
+import { fixedPointChecks } from './fixedPoint';
+import { float32Checks } from './float32';
+import { limitChecks } from './limits';
 import { analyzeLoops } from './loops';
 import { BANDWIDTH_SEPARATION_MIN, plantChecks, THIRD_HARMONIC_LIMIT } from './plant';
-import { quantizeSection } from './quantize';
-import { resonanceHzFromDenominator } from './resonance';
-import type { AnalysisOptions, AnalysisResult, BlockResult, Check, DesignInput, LoopResult, SectionKind, SectionResult, TimeResponseData } from './types';
+import { quantizeBlocks } from './quantization';
+import { scaleBlocks } from './scaling';
+import { designSections } from './sections';
+import { blockSignals, resolveSignals } from './signals';
+import type { AnalysisOptions, AnalysisResult, BlockResult, Check, DesignInput, LoopResult, TimeResponseData } from './types';
 
 /** Phase-margin target below which a loop gets a warning, deg (Åström & Hägglund, "Advanced PID Control", 2006: 45–60°). */
 export const PHASE_MARGIN_TARGET_DEG = 45;
@@ -18,50 +21,11 @@ export const PHASE_MARGIN_TARGET_DEG = 45;
 export const GAIN_MARGIN_TARGET_DB = 6;
 /** Peak-sensitivity limit (Åström & Hägglund 2006: Ms 1.2–2.0; Ms = 2 guarantees GM ≥ 6 dB, PM ≥ 29°). */
 export const PEAK_SENSITIVITY_LIMIT = 2;
-/** The reactive estimate is twice the low-passed product of current and quadrature template (sin^2 averages to 1/2). */
-export const REACTIVE_ESTIMATE_FACTOR = 2;
 
-// Builds a section result: quantizes it and runs the fixed-point analysis.
-function makeSection(role: string, kind: SectionKind, pair: SectionPair, prewarpHz: number | null, wordBits: number, samplePeriodS: number, designHz: number | null): SectionResult {
-  const fixed = quantizeSection(pair.b, pair.a, wordBits);
-  const section: SectionResult = { role, kind, prewarpHz, b: [...pair.b], a: [...pair.a], fixed };
-  if (designHz !== null) {
-    section.resonanceHz = { design: designHz, discrete: resonanceHzFromDenominator(pair.a, samplePeriodS), fixed: quantizedResonanceHz(fixed, samplePeriodS) };
-  }
-  section.fixedAnalysis = analyzeFixedSection({ role, kind, b: pair.b, a: pair.a, prewarpHz }, fixed, samplePeriodS);
-  return section;
-}
-
-// The six controller blocks of a design, in CONTRACT order.
-function buildBlocks(design: DesignInput, gains: DesignedGains, samplePeriodS: number): { blocks: BlockResult[]; pairs: Record<string, SectionPair[]> } {
-  const w = design.fixedPoint.wordBits;
-  const f0 = design.grid.frequencyHz;
-  const w0 = 2 * Math.PI * f0;
-  const wb = 2 * Math.PI * design.currentLoop.resonantBandwidthHz;
-  const voltagePi = piTustin(gains.voltageKp, gains.voltageKi, samplePeriodS);
-  const pllPiPair = piTustin(gains.pllKp, gains.pllKi, samplePeriodS);
-  const proportional: SectionPair = { b: [gains.currentKp, 0, 0], a: [1, 0, 0] };
-  const resonators = design.currentLoop.harmonics.map((h, i) => resonatorPrewarped(gains.resonantGains[i], h * w0, wb, samplePeriodS));
-  const sogi = sogiPrewarped(design.pll.sogiGain, w0, samplePeriodS);
-  const lpf = lowPassPrewarped(design.reactiveFilter.order, 2 * Math.PI * design.reactiveFilter.cutoffHz, samplePeriodS);
-  const src = gains.sources;
-  const currentSections = [
-    makeSection('proportional', 'gain', proportional, null, w, samplePeriodS, null),
-    ...design.currentLoop.harmonics.map((h, i) => {
-      const section = makeSection(`resonant-h${h}`, 'resonator', resonators[i], h * f0, w, samplePeriodS, h * f0);
-      section.resonanceByMethodHz = resonanceByMethodHz(h * w0, wb, samplePeriodS);
-      return section;
-    }),
-  ];
-  const blocks: BlockResult[] = [
-    { id: 'voltage-pi', method: 'tustin', gains: { kp: gains.voltageKp, ki: gains.voltageKi, plantGain: gains.voltagePlantGain }, gainSource: { kp: src.voltageKp, ki: src.voltageKi }, sections: [makeSection('pi', 'pi', voltagePi, null, w, samplePeriodS, null)] },
-    { id: 'pll-pi', method: 'tustin', gains: { kp: gains.pllKp, ki: gains.pllKi, naturalFrequencyRadPerS: gains.pllNaturalRadPerS }, gainSource: { kp: src.pllKp, ki: src.pllKi }, sections: [makeSection('pi', 'pi', pllPiPair, null, w, samplePeriodS, null)] },
-    { id: 'current-pr', method: 'tustin-prewarp', gains: { kp: gains.currentKp, resonantGains: gains.resonantGains }, gainSource: { kp: src.currentKp, resonantGains: src.resonantGains }, sections: currentSections },
-    { id: 'sogi-d', method: 'tustin-prewarp', gains: { k: design.pll.sogiGain }, gainSource: { k: 'override' }, sections: [makeSection('band-pass', 'sogi-band-pass', sogi.d, f0, w, samplePeriodS, f0)] },
-    { id: 'sogi-q', method: 'tustin-prewarp', gains: { k: design.pll.sogiGain }, gainSource: { k: 'override' }, sections: [makeSection('low-pass', 'sogi-low-pass', sogi.q, f0, w, samplePeriodS, f0)] },
-    { id: 'reactive-lpf', method: 'tustin-prewarp', gains: { cutoffHz: design.reactiveFilter.cutoffHz, order: design.reactiveFilter.order, reactiveEstimateFactor: REACTIVE_ESTIMATE_FACTOR }, sections: [makeSection('low-pass', 'low-pass', lpf, design.reactiveFilter.cutoffHz, w, samplePeriodS, null)] },
-  ];
-  return { blocks, pairs: { voltage: [voltagePi], pll: [pllPiPair], current: [proportional, ...resonators], lpf: [lpf] } };
+// Checks of the arithmetic the set ships in: the W-bit fixed point, or binary32.
+function arithmeticChecks(design: DesignInput, blocks: readonly BlockResult[], samplePeriodS: number): Check[] {
+  if (resolveSignals(design).arithmetic === 'float32') return float32Checks(blocks, { samplePeriodS, signals: blockSignals(design) });
+  return fixedPointChecks(blocks, { samplePeriodS, wordBits: design.fixedPoint.wordBits, gridFrequencyHz: design.grid.frequencyHz });
 }
 
 // Stability checks of one loop (severities of CONTRACT/issue: unstable → error, below targets → warning).
@@ -116,20 +80,22 @@ export function analyzeDesign(design: DesignInput, options: AnalysisOptions): An
   const samplePeriodS = 1 / (design.sampling.switchingFrequencyHz * design.sampling.updatesPerCarrier);
   const f0 = design.grid.frequencyHz;
   const gains = designGains(design);
-  const { blocks, pairs } = buildBlocks(design, gains, samplePeriodS);
+  const sections = designSections(design, gains, samplePeriodS);
+  const pairs = sections.pairs;
+  const blocks = quantizeBlocks(design, scaleBlocks(design, sections.blocks), samplePeriodS);
   const loopAnalysis = analyzeLoops(
     {
       samplePeriodS,
       computationDelaySamples: design.sampling.computationDelaySamples,
       filter: design.filter,
       currentController: pairs.current,
-      voltageController: pairs.voltage[0],
+      voltageController: pairs.voltage,
       voltagePlantGain: gains.voltagePlantGain,
-      pllController: pairs.pll[0],
+      pllController: pairs.pll,
     },
     options,
   );
-  const plant = plantChecks(design, pairs.lpf[0], samplePeriodS);
+  const plant = plantChecks(design, pairs.lpf, samplePeriodS);
   const checks: Check[] = [...plant.checks];
 
   // Design checks: resonators above the current-loop crossover are inside the loop's phase-critical band.
@@ -140,7 +106,7 @@ export function analyzeDesign(design: DesignInput, options: AnalysisOptions): An
   });
 
   // DC-link ripple through the voltage PI (REFERENCES: third harmonic ≈ |C_pi(j2ω)|·ΔV_peak/2).
-  const cAt2w = sectionResponse(pairs.voltage[0], 2 * f0, samplePeriodS);
+  const cAt2w = sectionResponse(pairs.voltage, 2 * f0, samplePeriodS);
   const voltagePiGainAt2f0 = Math.hypot(cAt2w.re, cAt2w.im);
   const ripplePeakV = plant.summary.dcLinkRipplePeakToPeakV / 2;
   const thirdHarmonicCurrentA = (voltagePiGainAt2f0 * ripplePeakV) / 2;
@@ -155,7 +121,8 @@ export function analyzeDesign(design: DesignInput, options: AnalysisOptions): An
     checks.push({ id: 'loop-bandwidth-separation', severity: low ? 'warning' : 'info', message: `Current-loop crossover is ${separation.toFixed(1)} × the voltage-loop crossover (at least ${BANDWIDTH_SEPARATION_MIN} × keeps the inner loop ideal for the outer one).`, value: separation, limit: BANDWIDTH_SEPARATION_MIN, unit: 'ratio', remedy: low ? 'Lower the voltage-loop crossover.' : null });
   }
   for (const loop of loopAnalysis.loops) checks.push(...loopChecks(loop));
-  checks.push(...fixedPointChecks(blocks, { samplePeriodS, wordBits: design.fixedPoint.wordBits, gridFrequencyHz: f0 }));
+  checks.push(...arithmeticChecks(design, blocks, samplePeriodS));
+  checks.push(...limitChecks(design, plant.summary));
 
   const result: AnalysisResult = {
     format: 'varsmith-analysis/1',
@@ -174,7 +141,7 @@ export function analyzeDesign(design: DesignInput, options: AnalysisOptions): An
     const time: Record<string, TimeResponseData> = { ...(loopAnalysis.time ?? {}) };
     if (options.responseSamples > 0) {
       const settle = plant.summary.estimatorSettlingTimeS ?? 1 / design.reactiveFilter.cutoffHz;
-      time['estimator-step'] = sectionStep(pairs.lpf[0], samplePeriodS, 1.5 * settle, options.responseSamples, 'reactive-current estimate (per unit) for a unit step of the product term');
+      time['estimator-step'] = sectionStep(pairs.lpf, samplePeriodS, 1.5 * settle, options.responseSamples, 'reactive-current estimate (per unit) for a unit step of the product term');
     }
     result.responses = {
       openLoop: loopAnalysis.openLoop ?? { current: emptySweep(), voltage: emptySweep(), pll: emptySweep() },

@@ -3,10 +3,14 @@
  * Coefficients in powers of z^-1, three entries each, a[0] = 1.
  */
 
+import { bilinearBiquadDelta, type DeltaTaps } from './deltaOperator';
+
 /** Numerator and denominator of one section, powers of z^-1. */
 export interface SectionPair {
   b: [number, number, number];
   a: [number, number, number];
+  /** The same section in the delta-operator form [b0, d1, d2, c1, c2], computed without cancellation (resonators, SOGI, low-passes). */
+  delta?: DeltaTaps;
 }
 
 /**
@@ -87,19 +91,18 @@ export function piTustin(kp: number, ki: number, samplePeriodS: number): Section
  * @param resonanceRadPerS - wh = h*w0, rad/s.
  * @param bandwidthRadPerS - wb, rad/s (0 = ideal).
  * @param samplePeriodS - Ts, s.
- * @returns the section (band-pass: b1 = 0, b2 = -b0).
+ * @returns the section (band-pass: b1 = 0, b2 = -b0), with its delta-operator form.
  * @example
  * resonatorPrewarped(1, 2 * Math.PI * 50, 0, 5e-5); // => b0 = 2.4998972e-5, a1 = -1.99975326, a2 = 1
  */
 export function resonatorPrewarped(gain: number, resonanceRadPerS: number, bandwidthRadPerS: number, samplePeriodS: number): SectionPair {
   const k = prewarpedTustinConstant(resonanceRadPerS, samplePeriodS);
   const w2 = resonanceRadPerS * resonanceRadPerS;
-  const section =
-    bandwidthRadPerS > 0
-      ? bilinearBiquad([0, 2 * gain * bandwidthRadPerS, 0], [1, 2 * bandwidthRadPerS, w2], k)
-      : bilinearBiquad([0, gain, 0], [1, 0, w2], k);
+  const num: [number, number, number] = bandwidthRadPerS > 0 ? [0, 2 * gain * bandwidthRadPerS, 0] : [0, gain, 0];
+  const den: [number, number, number] = [1, 2 * bandwidthRadPerS, w2];
+  const section = bilinearBiquad(num, den, k);
   if (bandwidthRadPerS === 0) section.a[2] = 1; // exactly marginal: (K^2 + w^2)/(K^2 + w^2)
-  return section;
+  return { ...section, delta: bilinearBiquadDelta(num, den, k) };
 }
 
 /**
@@ -110,16 +113,18 @@ export function resonatorPrewarped(gain: number, resonanceRadPerS: number, bandw
  * @param sogiGain - k (dimensionless).
  * @param gridRadPerS - w0, rad/s.
  * @param samplePeriodS - Ts, s.
- * @returns `{ d, q }` sections sharing one denominator.
+ * @returns `{ d, q }` sections sharing one denominator, each with its delta-operator form.
  * @example
  * sogiPrewarped(Math.SQRT2, 2 * Math.PI * 50, 1e-4).d.b[0]; // => 0.021728161744398
  */
 export function sogiPrewarped(sogiGain: number, gridRadPerS: number, samplePeriodS: number): { d: SectionPair; q: SectionPair } {
   const k = prewarpedTustinConstant(gridRadPerS, samplePeriodS);
   const den: [number, number, number] = [1, sogiGain * gridRadPerS, gridRadPerS * gridRadPerS];
+  const numD: [number, number, number] = [0, sogiGain * gridRadPerS, 0];
+  const numQ: [number, number, number] = [0, 0, sogiGain * gridRadPerS * gridRadPerS];
   return {
-    d: bilinearBiquad([0, sogiGain * gridRadPerS, 0], den, k),
-    q: bilinearBiquad([0, 0, sogiGain * gridRadPerS * gridRadPerS], den, k),
+    d: { ...bilinearBiquad(numD, den, k), delta: bilinearBiquadDelta(numD, den, k) },
+    q: { ...bilinearBiquad(numQ, den, k), delta: bilinearBiquadDelta(numQ, den, k) },
   };
 }
 
@@ -132,15 +137,16 @@ export function sogiPrewarped(sogiGain: number, gridRadPerS: number, samplePerio
  * @param order - 1 or 2.
  * @param cutoffRadPerS - wc, rad/s.
  * @param samplePeriodS - Ts, s.
- * @returns the section (order 1 padded with zeros).
+ * @returns the section (order 1 padded with zeros), with its delta-operator form.
  * @example
  * lowPassPrewarped(1, 2 * Math.PI * 10, 5e-5); // => b0 = b1 = 1.568334083e-3, a1 = -0.996863331833
  */
 export function lowPassPrewarped(order: 1 | 2, cutoffRadPerS: number, samplePeriodS: number): SectionPair {
   const k = prewarpedTustinConstant(cutoffRadPerS, samplePeriodS);
-  return order === 1
-    ? bilinearBiquad([0, 0, cutoffRadPerS], [0, 1, cutoffRadPerS], k)
-    : bilinearBiquad([0, 0, cutoffRadPerS * cutoffRadPerS], [1, Math.SQRT2 * cutoffRadPerS, cutoffRadPerS * cutoffRadPerS], k);
+  const w2 = cutoffRadPerS * cutoffRadPerS;
+  const num: [number, number, number] = order === 1 ? [0, 0, cutoffRadPerS] : [0, 0, w2];
+  const den: [number, number, number] = order === 1 ? [0, 1, cutoffRadPerS] : [1, Math.SQRT2 * cutoffRadPerS, w2];
+  return { ...bilinearBiquad(num, den, k), delta: bilinearBiquadDelta(num, den, k) };
 }
 
 /**

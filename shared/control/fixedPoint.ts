@@ -1,7 +1,8 @@
-import type { BlockResult, Check, FixedCoefficients, FixedSectionAnalysis, SectionKind } from './types';
+import type { BlockResult, Check, DeltaFixedCoefficients, FixedCoefficients, FixedSectionAnalysis, SectionKind, SectionResult } from './types';
 import { resonanceHzFromDenominator } from './resonance';
 import { scaleByPowerOfTwo } from './quantize';
 import { sectionName } from './names';
+import { DELTA_COEFFICIENT_NAMES, dequantizeDelta, directFormFromDelta } from './deltaOperator';
 
 /** What fixed-point analysis needs to know about a section. */
 export interface SectionForFixedAnalysis {
@@ -272,6 +273,101 @@ export function analyzeFixedSection(section: SectionForFixedAnalysis, fixed: Fix
   return { dcGain, maxPoleRadiusFixed, outputL1Norm, headroomBits, deadbandLsb, lostCoefficients, notes };
 }
 
+/**
+ * Fixed-point properties of a quantized delta-operator section (the quantization-robust form,
+ * deltaOperator.ts), in the same terms as {@link analyzeFixedSection}.
+ *
+ * - `dcGain.fixed` = d2 / c2 of the integers' values (H(z = 1) = H(delta = 0)); `discrete` from the doubles.
+ * - `maxPoleRadiusFixed`, `outputL1Norm`, `headroomBits`: of the Direct Form I section the quantized
+ *   delta coefficients stand for (`directFormFromDelta`).
+ * - `deadbandLsb`: 0.5 + 2 * 2^-G * l1(1/Aq). The output rounding (0.5 LSB) does not stay in the
+ *   states; the four products entering the accumulators are each rounded to 2^-G LSB (at most
+ *   0.5 * 2^-G each) and reach the output through 1/A(z) (Jackson, BSTJ 1970). A steady input
+ *   therefore leaves the output within that bound of the exact response: with G = 25 the 10 Hz
+ *   Butterworth low-pass at 20 kHz, which stalls 2e5 LSB off in Direct Form I, stays within 0.52 LSB.
+ *   Null when a quantized pole lies on the unit circle (ideal resonators; `notes` says so).
+ * - `lostCoefficients`: `b0`, `d1`, `d2`, `c1`, `c2` whose double is non-zero and whose integer is 0.
+ *
+ * @param coefficients - double [b0, d1, d2, c1, c2] (scaled).
+ * @param fixed - their quantization.
+ * @returns the analysis.
+ * @example
+ * analyzeDeltaSection(taps, quantizeDelta(taps, 16)).dcGain.fixed; // => 1 for a unity-gain low-pass (d2 and c2 quantize alike)
+ */
+export function analyzeDeltaSection(coefficients: readonly number[], fixed: DeltaFixedCoefficients): FixedSectionAnalysis {
+  const notes: string[] = [];
+  const q = dequantizeDelta(fixed);
+  const equivalent = directFormFromDelta(q);
+  const dcGain = {
+    discrete: coefficients[4] === 0 ? null : coefficients[2] / coefficients[4],
+    fixed: q[4] === 0 ? null : q[2] / q[4],
+  };
+  const maxPoleRadiusFixed = maxPoleRadius(equivalent.a);
+  const outputL1Norm = impulseResponseL1Norm(equivalent.b, equivalent.a);
+  if (outputL1Norm === null) notes.push('outputL1Norm: a quantized pole lies on or outside the unit circle, the state is unbounded: saturate it and add anti-windup');
+  const headroomBits = outputL1Norm === null ? null : outputL1Norm <= 1 ? 0 : Math.ceil(Math.log2(outputL1Norm));
+  const errorNorm = impulseResponseL1Norm([1], equivalent.a);
+  let deadbandLsb: number | null = null;
+  if (errorNorm === null) notes.push('deadbandLsb: the accumulators feed rounding errors through a pole on the unit circle');
+  else deadbandLsb = 0.5 + 2 * 2 ** -fixed.guardBits * errorNorm;
+  const lostCoefficients = DELTA_COEFFICIENT_NAMES.filter((_, i) => coefficients[i] !== 0 && fixed.codes[i] === 0);
+  return { dcGain, maxPoleRadiusFixed, outputL1Norm, headroomBits, deadbandLsb, lostCoefficients: [...lostCoefficients], notes };
+}
+
+/**
+ * Drift limit in Hz of a resonant section: damped resonator 0.1 x its half-bandwidth, ideal
+ * resonator 0.01 Hz, SOGI tan(1 deg) x its half-bandwidth (see the constants above).
+ *
+ * @param section - the section (kind and double denominator).
+ * @param samplePeriodS - Ts in seconds.
+ * @returns `{ limitHz, basis }` with the basis in words.
+ * @example
+ * resonanceDriftLimit({ kind: 'resonator', a: [1, -1.999753264963321, 1] }, 5e-5); // => { limitHz: 0.01, basis: 'the ideal-resonator limit' }
+ */
+export function resonanceDriftLimit(section: Pick<SectionResult, 'kind' | 'a'>, samplePeriodS: number): { limitHz: number; basis: string } {
+  const halfBandwidthHz = resonatorHalfBandwidthHz(section.a, samplePeriodS);
+  if (section.kind !== 'resonator') return { limitHz: SOGI_DRIFT_FRACTION_OF_HALF_BANDWIDTH * halfBandwidthHz, basis: 'tan(1 deg) x the SOGI half-bandwidth' };
+  if (halfBandwidthHz > 0) return { limitHz: RESONATOR_DRIFT_FRACTION_OF_HALF_BANDWIDTH * halfBandwidthHz, basis: '0.1 x the resonator half-bandwidth' };
+  return { limitHz: IDEAL_RESONATOR_DRIFT_LIMIT_HZ, basis: 'the ideal-resonator limit' };
+}
+
+/**
+ * Id of the drift finding of a resonant section: `pr-h<h>-quantization-drift`,
+ * `sogi-quantization-drift`, or `<prefix>-quantization-drift`.
+ *
+ * @param role - section role.
+ * @param kind - section kind.
+ * @param prefix - `<block id>` or `<block id>-<role>`.
+ * @returns the id.
+ * @example
+ * driftCheckId('resonant-h3', 'resonator', 'current-pr-resonant-h3'); // => 'pr-h3-quantization-drift'
+ */
+export function driftCheckId(role: string, kind: SectionKind, prefix: string): string {
+  if (kind !== 'resonator') return 'sogi-quantization-drift';
+  const harmonic = /^resonant-h(\d+)$/.exec(role)?.[1];
+  return harmonic ? `pr-h${harmonic}-quantization-drift` : `${prefix}-quantization-drift`;
+}
+
+/**
+ * Joins remedies into one sentence, dropping the absent ones: `a, or b.` with a capital first letter.
+ *
+ * @param parts - remedies (null = not applicable).
+ * @returns the sentence.
+ * @example
+ * joinRemedies(['choose 32-bit words', null, 'a wider resonator']); // => 'Choose 32-bit words, or a wider resonator.'
+ */
+export function joinRemedies(parts: readonly (string | null)[]): string {
+  const list = parts.filter((p): p is string => p !== null);
+  const text = list.join(', or ');
+  return text.charAt(0).toUpperCase() + text.slice(1) + '.';
+}
+
+/** Remedy naming the quantization-robust structure (what Varsmith produces for resonators, SOGI and low-passes). */
+export const ROBUST_STRUCTURE_REMEDY = 'choose the quantization-robust structure (delta-operator sections with their own coefficient scaling)';
+
+/** Remedy naming the 32-bit word. */
+export const WORD_REMEDY = 'choose the 32-bit word size';
+
 /** Context of the fixed-point checks. */
 export interface FixedPointCheckContext {
   /** Ts in seconds. */
@@ -337,23 +433,27 @@ export function resonatorHalfBandwidthHz(a: readonly number[], samplePeriodS: nu
 /**
  * Fixed-point checks over all blocks. Ids are `<prefix>-<finding>`, prefix = the block id, or
  * `<block id>-<role>` for blocks with several sections; the resonance drifts use
- * `pr-h<h>-quantization-drift` and `sogi-quantization-drift` (worst SOGI section).
+ * `pr-h<h>-quantization-drift` and `sogi-quantization-drift` (worst SOGI section). Sections in the
+ * delta-operator form (`section.delta`) are checked on their own integers.
  *
  * - resonance drift |fixed - design| (resonators, SOGI): `error` above the limit (damped resonator:
  *   0.1 x half-bandwidth; ideal: 0.01 Hz; SOGI: tan(1 deg) x half-bandwidth), `info` otherwise.
- * - a low-pass whose integers give aq0 + aq1 + aq2 <= 0 (pole at or past z = 1): `error`.
+ * - a low-pass whose integers give aq0 + aq1 + aq2 <= 0 (delta form: c2 <= 0; a pole at or past z = 1): `error`.
  * - any other section whose quantized poles reach the unit circle while the double ones do not: `error`.
  * - lost coefficient (non-zero double, zero integer): `error`.
  * - PI: integral gain bq0 + bq1 zero or of the wrong sign: `error`; off by more than 1 %: `warning`;
  *   integrator dead band (input errors never integrated) above 0.1 % of full scale: `warning`.
  * - low-pass / SOGI low-pass DC gain off by more than 1 %: `warning`.
  * - output dead band above 0.1 % of full scale: `warning`.
- * - F < 0 (coefficients beyond the word even without fraction bits): `error`.
- * - unbounded state (ideal resonators, integrators): `info` (saturate states, anti-windup);
+ * - F < 0 (coefficients beyond the word even without fraction bits; delta form: also G < 0): `error`.
+ * - unbounded state (ideal resonators, integrators): `info` (the limited steps of the set bound them);
  *   output needing more bits than the word for a full-scale input: `info`.
  *
- * @param blocks - blocks whose sections carry `fixed`, and optionally `resonanceHz` and `fixedAnalysis`
- *   (computed here when absent).
+ * Remedies name only what Varsmith produces: 32-bit words, the quantization-robust structure,
+ * the limited PI step (its integrator keeps guard bits), and design inputs (bandwidth, SOGI gain, cutoff).
+ *
+ * @param blocks - blocks whose sections carry `fixed`, and optionally `resonanceHz`, `delta` and
+ *   `fixedAnalysis` (computed here when absent).
  * @param context - sampling period, word length and grid frequency.
  * @returns the checks, in block and section order.
  * @example
@@ -364,54 +464,50 @@ export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedP
   const checks: Check[] = [];
   const ts = context.samplePeriodS;
   const fullScale = 2 ** (context.wordBits - 1) - 1;
-  const wordRemedy = context.wordBits < 32 ? 'use the 32-bit word size' : null;
-  const join = (parts: (string | null)[]): string => {
-    const list = parts.filter((p): p is string => p !== null);
-    const text = list.join(', or ');
-    return text.charAt(0).toUpperCase() + text.slice(1) + '.';
-  };
+  const wordRemedy = context.wordBits < 32 ? WORD_REMEDY : null;
   let worstSogi: { check: Check; excess: number } | null = null;
 
   for (const block of blocks) {
     for (const section of block.sections) {
       const fixed = section.fixed;
+      const delta = section.delta?.fixed ?? null;
+      const robustRemedy = delta === null && section.kind !== 'gain' && section.kind !== 'pi' ? ROBUST_STRUCTURE_REMEDY : null;
+      const format = delta === null ? fixed.qFormat : `the delta-operator form (${delta.qFormats.join(', ')}, G = ${delta.guardBits})`;
       const prefix = block.sections.length > 1 ? `${block.id}-${section.role}` : block.id;
       const where = sectionName(block.id, section.role, block.sections.length);
       const make = (id: string, severity: Check['severity'], message: string, value: number | null, limit: number | null, unit: string | null, remedy: string | null): Check => ({
         id, severity, message, value: finiteOrNull(value), limit: finiteOrNull(limit), unit, blockId: block.id, remedy,
       });
 
-      if (fixed.fracBits < 0) {
-        checks.push(make(`${prefix}-coefficient-range`, 'error', `${where}: coefficients exceed the ${fixed.wordBits}-bit word even with no fraction bits (F = ${fixed.fracBits}); the reference arithmetic cannot run it.`, fixed.fracBits, 0, 'bit', join([wordRemedy, 'scale the block input or output so its gains fall below 2^(W-2)'])));
+      const minFrac = delta === null ? fixed.fracBits : Math.min(delta.guardBits, ...delta.fracBits);
+      if (minFrac < 0) {
+        checks.push(make(`${prefix}-coefficient-range`, 'error', `${where}: coefficients exceed the ${fixed.wordBits}-bit word even with no fraction bits (F = ${minFrac}); the reference arithmetic cannot run it.`, minFrac, 0, 'bit', joinRemedies([wordRemedy, 'per-unit signals (they keep every gain near 1)'])));
         continue;
       }
-      const fa = section.fixedAnalysis ?? analyzeFixedSection(section, fixed, ts);
+      const fa = section.fixedAnalysis ?? (section.delta ? analyzeDeltaSection(section.delta.coefficients, section.delta.fixed) : analyzeFixedSection(section, fixed, ts));
 
       if (fa.lostCoefficients.length > 0) {
-        checks.push(make(`${prefix}-lost-coefficient`, 'error', `${where}: ${fa.lostCoefficients.join(', ')} quantize to zero in ${fixed.qFormat}; the section no longer does what it was designed for.`, fa.lostCoefficients.length, 0, 'coefficients', join([wordRemedy, 'give the small coefficients their own scaling (a separate shift for the numerator)', 'a lower sampling rate for this block'])));
+        checks.push(make(`${prefix}-lost-coefficient`, 'error', `${where}: ${fa.lostCoefficients.join(', ')} quantize to zero in ${format}; the section no longer does what it was designed for.`, fa.lostCoefficients.length, 0, 'coefficients', joinRemedies([robustRemedy, wordRemedy, 'float32 arithmetic'])));
       }
 
       if (section.kind === 'resonator' || section.kind === 'sogi-band-pass' || section.kind === 'sogi-low-pass') {
         const designHz = section.resonanceHz?.design ?? section.prewarpHz;
         const fixedHz = section.resonanceHz ? section.resonanceHz.fixed : quantizedResonanceHz(fixed, ts);
-        const halfBandwidthHz = resonatorHalfBandwidthHz(section.a, ts);
         const isSogi = section.kind !== 'resonator';
-        const limitHz = isSogi ? SOGI_DRIFT_FRACTION_OF_HALF_BANDWIDTH * halfBandwidthHz : halfBandwidthHz > 0 ? RESONATOR_DRIFT_FRACTION_OF_HALF_BANDWIDTH * halfBandwidthHz : IDEAL_RESONATOR_DRIFT_LIMIT_HZ;
-        const harmonic = /^resonant-h(\d+)$/.exec(section.role)?.[1];
-        const id = isSogi ? 'sogi-quantization-drift' : harmonic ? `pr-h${harmonic}-quantization-drift` : `${prefix}-quantization-drift`;
-        const remedy = join([wordRemedy, 'store 2 + a1 and 1 - a2 separately with their own scaling (split feedback)', 'a lower sampling rate for this block', isSogi ? 'a larger SOGI gain (wider band-pass)' : 'a wider resonator (a larger resonant bandwidth)']);
+        const { limitHz, basis } = resonanceDriftLimit(section, ts);
+        const id = driftCheckId(section.role, section.kind, prefix);
+        const remedy = joinRemedies([robustRemedy, wordRemedy, isSogi ? 'a larger SOGI gain (wider band-pass)' : 'a wider resonator (a larger resonant bandwidth)']);
         let check: Check;
         if (designHz === null || designHz === undefined) {
           check = make(id, 'error', `${where}: no design frequency known for this resonant section.`, null, limitHz, 'Hz', remedy);
         } else if (fixedHz === null) {
-          check = make(id, 'error', `${where}: the quantized poles in ${fixed.qFormat} are real, the section no longer resonates at ${fmt(designHz)} Hz.`, null, limitHz, 'Hz', remedy);
+          check = make(id, 'error', `${where}: the quantized poles in ${format} are real, the section no longer resonates at ${fmt(designHz)} Hz.`, null, limitHz, 'Hz', remedy);
         } else {
           const drift = Math.abs(fixedHz - designHz);
           const bad = drift > limitHz;
-          const basis = isSogi ? 'tan(1 deg) x the SOGI half-bandwidth' : halfBandwidthHz > 0 ? '0.1 x the resonator half-bandwidth' : 'the ideal-resonator limit';
           check = make(id, bad ? 'error' : 'info', bad
-            ? `${where}: in ${fixed.qFormat} the resonance lands at ${fmt(fixedHz)} Hz instead of ${fmt(designHz)} Hz (drift ${fmt(drift)} Hz > ${fmt(limitHz)} Hz, ${basis}); the controller loses its gain at the design frequency.`
-            : `${where}: quantized resonance ${fmt(fixedHz)} Hz, drift ${fmt(drift)} Hz within ${fmt(limitHz)} Hz (${basis}).`,
+            ? `${where}: in ${format} the resonance lands at ${fmt(fixedHz)} Hz instead of ${fmt(designHz)} Hz (drift ${fmt(drift)} Hz > ${fmt(limitHz)} Hz, ${basis}); the controller loses its gain at the design frequency.`
+            : `${where}: quantized resonance ${fmt(fixedHz)} Hz in ${format}, drift ${fmt(drift)} Hz within ${fmt(limitHz)} Hz (${basis}).`,
           drift, limitHz, 'Hz', bad ? remedy : null);
         }
         if (isSogi) {
@@ -422,18 +518,20 @@ export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedP
         }
       }
 
-      const sumInt = fixed.a[0] + fixed.a[1] + fixed.a[2];
+      const sumInt = delta === null ? fixed.a[0] + fixed.a[1] + fixed.a[2] : delta.codes[4];
       const doubleRadius = maxPoleRadius(section.a);
       if (section.kind === 'low-pass' && sumInt <= 0) {
-        checks.push(make(`${prefix}-pole-at-one`, 'error', `${where}: 1 + a1 + a2 quantizes to ${sumInt} LSB of ${fixed.qFormat}; a pole sits at or beyond z = 1 and the low-pass becomes an integrator.`, sumInt, 1, 'LSB', join([wordRemedy, 'store 1 + a1 + a2 (or 2 + a1 and 1 - a2) separately with their own scaling', 'a lower sampling rate for this block', 'a higher cutoff frequency'])));
+        const what = delta === null ? `1 + a1 + a2 quantizes to ${sumInt} LSB of ${fixed.qFormat}` : `c2 = 1 + a1 + a2 quantizes to ${sumInt}`;
+        checks.push(make(`${prefix}-pole-at-one`, 'error', `${where}: ${what}; a pole sits at or beyond z = 1 and the low-pass becomes an integrator.`, sumInt, 1, 'LSB', joinRemedies([robustRemedy, wordRemedy, 'a higher cutoff frequency'])));
       } else if (fa.maxPoleRadiusFixed >= 1 && doubleRadius < 1) {
-        checks.push(make(`${prefix}-quantized-unstable`, 'error', `${where}: the quantized poles have radius ${fmt(fa.maxPoleRadiusFixed)} (double ${fmt(doubleRadius)}); the section is no longer stable in ${fixed.qFormat}.`, fa.maxPoleRadiusFixed, 1, null, join([wordRemedy, 'store 2 + a1 and 1 - a2 separately with their own scaling', 'a lower sampling rate for this block'])));
+        checks.push(make(`${prefix}-quantized-unstable`, 'error', `${where}: the quantized poles have radius ${fmt(fa.maxPoleRadiusFixed)} (double ${fmt(doubleRadius)}); the section is no longer stable in ${format}.`, fa.maxPoleRadiusFixed, 1, null, joinRemedies([robustRemedy, wordRemedy])));
       }
 
       if (section.kind === 'pi') {
-        const intended = scaleByPowerOfTwo((section.b[0] ?? 0) + (section.b[1] ?? 0), fixed.fracBits);
+        const b = section.scaled?.b ?? section.b;
+        const intended = scaleByPowerOfTwo((b[0] ?? 0) + (b[1] ?? 0), fixed.fracBits);
         const integral = fixed.b[0] + fixed.b[1];
-        const remedy = join([wordRemedy, 'give the integral gain its own scaling (a separate integrator with its own shift)', 'a lower sampling rate for this block']);
+        const remedy = joinRemedies([wordRemedy, 'run the limited PI step of the set (its integrator keeps guard bits below the signal LSB)']);
         if (intended !== 0) {
           if (integral === 0 || Math.sign(integral) !== Math.sign(intended)) {
             checks.push(make(`${prefix}-integral-lost`, 'error', `${where}: the integral gain ki*Ts = b0 + b1 (${fmt(intended)} LSB) quantizes to ${integral} LSB in ${fixed.qFormat}; the integral action is lost.`, integral, 1, 'LSB', remedy));
@@ -444,7 +542,7 @@ export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedP
             }
             const integralLimit = DEADBAND_FRACTION_OF_FULL_SCALE * fullScale;
             if (fa.deadbandLsb !== null && fa.deadbandLsb > integralLimit) {
-              checks.push(make(`${prefix}-integral-deadband`, 'warning', `${where}: input errors below ${fmt(fa.deadbandLsb)} LSB (${fmt((100 * fa.deadbandLsb) / fullScale)} % of full scale) are never integrated: the integrator increment round(ki*Ts*x) stays 0.`, fa.deadbandLsb, integralLimit, 'LSB', join(['keep the integrator in its own state with extra fraction bits (the output word is the state in Direct Form I)', wordRemedy, 'a lower sampling rate for this block'])));
+              checks.push(make(`${prefix}-integral-deadband`, 'warning', `${where}: input errors below ${fmt(fa.deadbandLsb)} LSB (${fmt((100 * fa.deadbandLsb) / fullScale)} % of full scale) are never integrated: the integrator increment round(ki*Ts*x) stays 0.`, fa.deadbandLsb, integralLimit, 'LSB', remedy));
             }
           }
         }
@@ -453,17 +551,17 @@ export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedP
       if ((section.kind === 'low-pass' || section.kind === 'sogi-low-pass') && fa.dcGain.discrete !== null && fa.dcGain.fixed !== null && fa.dcGain.discrete !== 0) {
         const relative = Math.abs(fa.dcGain.fixed - fa.dcGain.discrete) / Math.abs(fa.dcGain.discrete);
         if (relative > LOW_PASS_DC_GAIN_TOLERANCE) {
-          checks.push(make(`${prefix}-dc-gain-error`, 'warning', `${where}: the quantized DC gain is ${fmt(fa.dcGain.fixed)} instead of ${fmt(fa.dcGain.discrete)} (${fmt(100 * relative)} % off).`, 100 * relative, 100 * LOW_PASS_DC_GAIN_TOLERANCE, '%', join([wordRemedy, 'store 1 + a1 + a2 separately with its own scaling', 'a lower sampling rate for this block'])));
+          checks.push(make(`${prefix}-dc-gain-error`, 'warning', `${where}: the quantized DC gain is ${fmt(fa.dcGain.fixed)} instead of ${fmt(fa.dcGain.discrete)} (${fmt(100 * relative)} % off).`, 100 * relative, 100 * LOW_PASS_DC_GAIN_TOLERANCE, '%', joinRemedies([robustRemedy, wordRemedy])));
         }
       }
 
       const deadbandLimit = DEADBAND_FRACTION_OF_FULL_SCALE * fullScale;
       if (section.kind !== 'pi' && fa.deadbandLsb !== null && fa.deadbandLsb > deadbandLimit) {
-        checks.push(make(`${prefix}-deadband`, 'warning', `${where}: rounding can hold the output up to ${fmt(fa.deadbandLsb)} LSB (${fmt((100 * fa.deadbandLsb) / fullScale)} % of full scale) off its exact value.`, fa.deadbandLsb, deadbandLimit, 'LSB', join([wordRemedy, 'error feedback (keep the rounding remainder for the next sample)', 'a lower sampling rate for this block'])));
+        checks.push(make(`${prefix}-deadband`, 'warning', `${where}: rounding can hold the output up to ${fmt(fa.deadbandLsb)} LSB (${fmt((100 * fa.deadbandLsb) / fullScale)} % of full scale) off its exact value.`, fa.deadbandLsb, deadbandLimit, 'LSB', joinRemedies([robustRemedy, wordRemedy])));
       }
 
       if (fa.outputL1Norm === null && section.kind !== 'low-pass' && !(fa.maxPoleRadiusFixed >= 1 && doubleRadius < 1)) {
-        checks.push(make(`${prefix}-unbounded-state`, 'info', `${where}: a pole on the unit circle (${section.kind === 'pi' ? 'integrator' : 'ideal resonator'}) makes the state unbounded for a sustained input; saturate the states and add anti-windup.`, null, null, null, 'Saturate the section state and add anti-windup.'));
+        checks.push(make(`${prefix}-unbounded-state`, 'info', `${where}: a pole on the unit circle (${section.kind === 'pi' ? 'integrator' : 'ideal resonator'}) makes the state unbounded for a sustained input; the limited steps of the set clamp the output and hold the states bounded.`, null, null, null, 'Run the block through its limited step (output clamp with anti-windup).'));
       } else if (fa.headroomBits !== null && fa.headroomBits > 0) {
         checks.push(make(`${prefix}-headroom`, 'info', `${where}: a full-scale input can drive the output ${fa.headroomBits} bit(s) past the word (l1 norm ${fmt(fa.outputL1Norm ?? 0)}); the output saturates.`, fa.headroomBits, 0, 'bit', null));
       }

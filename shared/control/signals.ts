@@ -224,6 +224,12 @@ export interface SignalDescriptor {
   baseValue: number;
   /** Number format of the signal word, e.g. `Q3.29` or `binary32`. */
   format: string;
+  /** Per-unit base of the quantity whatever the units (for per-unit words in findings). */
+  puBaseName: BaseName;
+  /** Its value in the SI unit (1 for `none`). */
+  puBaseValue: number;
+  /** The number the firmware holds for 1 pu of this quantity: 1 in per unit, the base value in SI. */
+  onePu: number;
 }
 
 /** Input and output signals of one block and the numerator factor g that maps them. */
@@ -283,6 +289,9 @@ export function blockSignals(design: DesignInput): BlockSignals[] {
       baseName: name,
       baseValue: baseValue(bases, name),
       format: resolved.signalFormat,
+      puBaseName: base,
+      puBaseValue: baseValue(bases, base),
+      onePu: perUnit ? 1 : baseValue(bases, base),
     };
   };
   return BLOCK_IDS.map((blockId) => {

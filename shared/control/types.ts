@@ -178,6 +178,64 @@ export interface ScaledCoefficients {
   a: number[];
 }
 
+/**
+ * Realisation of one recursive section: `direct-form-1` (CONTRACT section 3) or `delta-operator`, the
+ * transposed direct form II in the delta operator (delta = z - 1) whose feedback coefficients
+ * c1 = 2 + a1 and c2 = 1 + a1 + a2 keep their own scaling (Newman & Holmes, IEEE TPEL 18(1), 2003).
+ */
+export type SectionForm = 'direct-form-1' | 'delta-operator';
+
+/**
+ * Quantized coefficients of a delta-operator section: every coefficient has its own fraction bits
+ * (the largest F with round(c * 2^F) within +-(2^(W-1) - 1), the CONTRACT rule applied one
+ * coefficient at a time), and the two states carry G guard bits below the signal LSB.
+ */
+export interface DeltaFixedCoefficients {
+  /** Word length W of the signals and of every coefficient integer. */
+  wordBits: number;
+  /** Integers of [b0, d1, d2, c1, c2]. */
+  codes: number[];
+  /** Fraction bits of each integer, same order. */
+  fracBits: number[];
+  /** Q-format label of each integer, same order. */
+  qFormats: string[];
+  /** Guard bits G: the states are 64-bit integers in units of 2^-G signal LSB. */
+  guardBits: number;
+}
+
+/**
+ * A section in the delta-operator form: H = (b0 + d1 D + d2 D^2) / (1 + c1 D + c2 D^2) with
+ * D = 1 / (z - 1) (a delayed accumulator), equal to the Direct Form I section
+ * (b0 + b1 z^-1 + b2 z^-2) / (1 + a1 z^-1 + a2 z^-2) for d1 = 2 b0 + b1, d2 = b0 + b1 + b2,
+ * c1 = 2 + a1, c2 = 1 + a1 + a2.
+ */
+export interface DeltaSection {
+  form: 'delta-operator';
+  /** [b0, d1, d2, c1, c2] of the scaled section (numerator times g), computed without cancellation. */
+  coefficients: number[];
+  /** Their quantization (fixed arithmetic). */
+  fixed: DeltaFixedCoefficients;
+}
+
+/** What single precision does to one section (`fixedPoint.arithmetic = "float32"`). */
+export interface Float32SectionAnalysis {
+  /** Form whose coefficients were rounded. */
+  form: SectionForm;
+  /** The binary32 coefficients of that form: [b0, b1, b2, a1, a2] or [b0, d1, d2, c1, c2]. */
+  coefficients: number[];
+  /** Resonance of the rounded coefficients, Hz (resonator and SOGI sections; null when the poles turned real). */
+  resonanceHz: number | null;
+  /** DC gain of the rounded coefficients (null where a pole sits at z = 1). */
+  dcGain: number | null;
+  /** Largest pole radius of the rounded coefficients. */
+  maxPoleRadius: number;
+  /**
+   * Low-pass sections: where the bit-exact single-precision model settles for a held input of
+   * `stall.inputPu`, as a fraction off the exact value (null for other kinds).
+   */
+  stall: { inputPu: number; settledOutput: number; relativeError: number; samples: number } | null;
+}
+
 /** One second-order section: y = sum b_i x[n-i] - sum_{i>=1} a_i y[n-i]. */
 export interface SectionResult {
   /** `proportional`, `resonant-h<h>`, `pi`, `band-pass`, `low-pass`. */
@@ -190,13 +248,19 @@ export interface SectionResult {
   /** Denominator in powers of z^-1, three entries, a[0] = 1. */
   a: number[];
   /** Resonator and SOGI sections: centre frequency acos(-a1/(1+a2))/(2*pi*Ts). */
-  resonanceHz?: { design: number; discrete: number | null; fixed: number | null };
+  resonanceHz?: { design: number; discrete: number | null; fixed: number | null; float32?: number | null };
   /** Resonator sections: where the resonance lands with other discretizations (Hz), for comparison. */
   resonanceByMethodHz?: Record<string, number | null>;
   /** The section scaled to its block's signals (CONTRACT section 7): numerator times g, denominator unchanged. */
   scaled?: ScaledCoefficients;
   /** Quantization of `scaled` (of b and a when `scaled` is absent). */
   fixed: FixedCoefficients;
+  /** Form this section runs in (CONTRACT section 7): `delta-operator` for resonators, SOGI and low-passes with the quantization-robust structure. */
+  structure?: SectionForm;
+  /** The delta-operator coefficients and their integers, when `structure` is `delta-operator`. */
+  delta?: DeltaSection;
+  /** Single-precision analysis, when the design's arithmetic is float32. */
+  float32?: Float32SectionAnalysis;
   /** Fixed-point properties of this section (headroom, dead band, DC gain...). */
   fixedAnalysis?: FixedSectionAnalysis;
 }

@@ -95,7 +95,9 @@ describe('properties over random valid designs', () => {
             if (s.resonanceHz && s.resonanceHz.discrete !== null) expectClose(s.resonanceHz.discrete, s.resonanceHz.design, { rtol: 1e-7 }, `${block.id}/${s.role}`);
             const ints = [...s.fixed.b, ...s.fixed.a];
             for (const n of ints) expect(Math.abs(n)).toBeLessThanOrEqual(limit);
-            const coeffs = [...s.b, ...s.a];
+            // CONTRACT section 7: `fixed` quantizes `scaled` (numerator times g, denominator unchanged).
+            expect(s.scaled?.a).toEqual(s.a);
+            const coeffs = [...(s.scaled?.b ?? []), ...s.a];
             const overflowsAtNext = coeffs.some((c) => Math.abs(Math.round(Math.abs(c) * 2 ** (s.fixed.fracBits + 1))) > limit);
             expect(s.fixed.fracBits === 62 || overflowsAtNext).toBe(true);
           }
