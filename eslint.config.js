@@ -24,11 +24,14 @@ export default tseslint.config(
       'vue/html-self-closing': 'off',
     },
   },
-  // src/ and server/ reach the core only through its barrel.
+  // src/ and server/ reach the core and the firmware model only through their barrels.
   {
     files: ['src/**/*.{ts,vue}', 'server/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: [{ group: ['**/shared/control/*', '!**/shared/control/index', '!**/shared/control'], message: 'Import the core only from shared/control (its index.ts).' }] }],
+      'no-restricted-imports': ['error', { patterns: [
+        { group: ['**/shared/control/*', '!**/shared/control/index', '!**/shared/control'], message: 'Import the core only from shared/control (its index.ts).' },
+        { group: ['**/shared/firmware/*', '!**/shared/firmware/index', '!**/shared/firmware'], message: 'Import the firmware model only from shared/firmware (its index.ts).' },
+      ] }],
     },
   },
   // Handlers never touch the ORM (STYLE habit 17).
@@ -42,7 +45,17 @@ export default tseslint.config(
   {
     files: ['shared/control/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', { paths: [...frameworks, 'zod'], patterns: [{ group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*'], message: 'shared/control imports nothing outside itself but mathjs.' }] }],
+      'no-restricted-imports': ['error', { paths: [...frameworks, 'zod'], patterns: [{ group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*', '../firmware', '../firmware/*'], message: 'shared/control imports nothing outside itself but mathjs.' }] }],
+    },
+  },
+  // The firmware model builds on the core (through its barrel) and nothing else.
+  {
+    files: ['shared/firmware/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { paths: [...frameworks, 'zod', 'mathjs'], patterns: [
+        { group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*'], message: 'shared/firmware imports only shared/control.' },
+        { group: ['../control/*', '!../control/index'], message: 'shared/firmware imports the core only from shared/control/index.' },
+      ] }],
     },
   },
   {

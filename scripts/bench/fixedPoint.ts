@@ -1,7 +1,8 @@
 // Fixed-point figures: throughput of the bit-exact Direct Form I model (ns per section-sample, 16
 // and 32 bit) and the time to build the golden vectors of a six-block analysis with a 4-harmonic
 // current controller (median and p95 over 20 runs, 2000 samples per vector). Numbers only.
-import { goldenVectors, quantizeSection, runFixedSection, type AnalysisResult, type SectionKind, type SectionResult } from '../../shared/control/index';
+import { quantizeSection, type AnalysisResult, type SectionKind, type SectionResult } from '../../shared/control/index';
+import { goldenVectors, runFixedSection } from '../../shared/firmware/index';
 
 const samplePeriodS = 1 / 32000;
 const gridHz = 60;

@@ -1,4 +1,5 @@
-import { goldenVectors, type AnalysisResult, type DesignInput } from '../../shared/control/index';
+import type { AnalysisResult, DesignInput } from '../../shared/control/index';
+import { firmwareSet, float32GoldenVectors, goldenVectors, limitVectors, type GoldenVector } from '../../shared/firmware/index';
 import { canonicalJson, sha256Hex } from './canonical';
 import { presentBundle, SAFETY_CAUTION, VECTOR_SAMPLES, VECTOR_SEED, type ExportMeta } from './presenter';
 import { renderTemplate } from './render';
@@ -34,9 +35,16 @@ export const MANIFEST_FORMAT = 'varsmith-manifest/1';
  */
 export function renderBundleFiles(input: BundleInput): { root: string; slug: string; files: ZipFile[] } {
   const meta: ExportMeta = { version: input.version, revision: input.revision, draft: input.draft, toolVersion: input.toolVersion, createdAt: input.createdAt };
-  let vectors;
+  let vectors: GoldenVector[];
   try {
-    vectors = goldenVectors(input.analysis, input.design.grid.frequencyHz, { samples: VECTOR_SAMPLES, seed: VECTOR_SEED });
+    const set = firmwareSet(input.design, input.analysis);
+    const options = { samples: VECTOR_SAMPLES, seed: VECTOR_SEED };
+    const f0 = input.design.grid.frequencyHz;
+    const ts = input.analysis.sampleTimeS;
+    vectors = [
+      ...(set.arithmetic === 'float32' ? float32GoldenVectors(set, f0, ts, options) : goldenVectors(input.analysis, f0, options)),
+      ...limitVectors(set, input.design, ts, VECTOR_SAMPLES),
+    ];
   } catch (err) {
     throw new Error(`cannot build the golden vectors of this design: ${(err as Error).message}`, { cause: err });
   }

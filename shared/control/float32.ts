@@ -43,25 +43,31 @@ export function toFloat32(values: readonly number[]): number[] {
   return values.map((v) => Math.fround(v));
 }
 
+/** Largest finite binary32 value (FLT_MAX): the clamp of a section without a limit. */
+export const FLOAT32_MAX = 3.4028234663852886e38;
+
 /**
  * One sample of a single-precision Direct Form I section, in the operation order of the C code:
  * `acc = b0*x; acc += b1*x1; acc += b2*x2; acc -= a1*y1; acc -= a2*y2;` each product and each
- * sum rounded to binary32.
+ * sum rounded to binary32, then clamped to +-limit (the stored output is the clamped one).
  *
  * @param k - binary32 [b0, b1, b2, a1, a2].
  * @param state - delays (mutated: shifted by one sample).
  * @param input - x[n], a binary32 value.
+ * @param limit - output clamp, a positive binary32 value (default FLT_MAX: no clamp for finite values).
  * @returns y[n] (binary32).
  * @example
  * stepFloat32Df1([0.5, 0, 0, -0.5, 0], { x1: 0, x2: 0, y1: 0, y2: 0 }, 1); // => 0.5
  */
-export function stepFloat32Df1(k: readonly number[], state: Float32Df1State, input: number): number {
+export function stepFloat32Df1(k: readonly number[], state: Float32Df1State, input: number, limit: number = FLOAT32_MAX): number {
   const f = Math.fround;
   let acc = f(k[0] * input);
   acc = f(acc + f(k[1] * state.x1));
   acc = f(acc + f(k[2] * state.x2));
   acc = f(acc - f(k[3] * state.y1));
   acc = f(acc - f(k[4] * state.y2));
+  if (acc > limit) acc = limit;
+  else if (acc < -limit) acc = -limit;
   state.x2 = state.x1;
   state.x1 = input;
   state.y2 = state.y1;
@@ -71,22 +77,32 @@ export function stepFloat32Df1(k: readonly number[], state: Float32Df1State, inp
 
 /**
  * One sample of a single-precision delta-operator section (see deltaOperator.ts), in the order of
- * the C code: `y = b0*x + s1; s1 = s1 + d1*x - c1*y + s2; s2 = s2 + d2*x - c2*y;` (left to right,
- * every product and sum rounded to binary32; s1 uses the old s2).
+ * the C code: `y = b0*x + s1;` clamped to +-limit, then `s1 = s1 + d1*x - c1*y + s2;
+ * s2 = s2 + d2*x - c2*y;` (left to right, every product and sum rounded to binary32; s1 uses the
+ * old s2), both accumulators clamped to +-(limit + limit) (infinite for FLT_MAX: no clamp).
  *
  * @param k - binary32 [b0, d1, d2, c1, c2].
  * @param state - accumulators (mutated).
  * @param input - x[n], a binary32 value.
+ * @param limit - output clamp, a positive binary32 value (default FLT_MAX).
  * @returns y[n] (binary32).
  * @example
  * stepFloat32Delta([0.5, 1, 0.5, 1.5, 0.5], { s1: 0, s2: 0 }, 1); // => 0.5
  */
-export function stepFloat32Delta(k: readonly number[], state: Float32DeltaState, input: number): number {
+export function stepFloat32Delta(k: readonly number[], state: Float32DeltaState, input: number, limit: number = FLOAT32_MAX): number {
   const f = Math.fround;
-  const y = f(f(k[0] * input) + state.s1);
-  const s1 = f(f(f(state.s1 + f(k[1] * input)) - f(k[3] * y)) + state.s2);
-  state.s2 = f(f(state.s2 + f(k[2] * input)) - f(k[4] * y));
+  let y = f(f(k[0] * input) + state.s1);
+  if (y > limit) y = limit;
+  else if (y < -limit) y = -limit;
+  const bound = f(limit + limit);
+  let s1 = f(f(f(state.s1 + f(k[1] * input)) - f(k[3] * y)) + state.s2);
+  let s2 = f(f(state.s2 + f(k[2] * input)) - f(k[4] * y));
+  if (s1 > bound) s1 = bound;
+  else if (s1 < -bound) s1 = -bound;
+  if (s2 > bound) s2 = bound;
+  else if (s2 < -bound) s2 = -bound;
   state.s1 = s1;
+  state.s2 = s2;
   return y;
 }
 

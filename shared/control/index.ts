@@ -3,8 +3,6 @@ export * from './types';
 export * from './resonance';
 export * from './quantize';
 export * from './fixedPoint';
-export * from './fixedModel';
-export * from './vectors';
 export * from './analyze';
 export * from './errors';
 export * from './polynomial';

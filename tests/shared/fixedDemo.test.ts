@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readdirSync, readFileSync } from 'node:fs';
-import { analyzeDesign, analyzeFixedSection, goldenVectors, type AnalysisResult, type DesignInput } from '../../shared/control/index';
+import { analyzeDesign, analyzeFixedSection, type AnalysisResult, type DesignInput } from '../../shared/control/index';
+import { goldenVectors } from '../../shared/firmware/index';
 import { referenceBlock } from './fixedReference';
 
 // The demo designs of examples/ through the whole core: the fixed-point checks must tell the

@@ -4,7 +4,7 @@ import { readFileSync } from 'node:fs';
 import {
   AccumulatorOverflowError, FIXED_ARITHMETIC, FixedArithmeticError, createFixedBlockState, createFixedSectionState, resetFixedBlockState,
   resetFixedSectionState, runFixedBlock, runFixedSection, safeInputMagnitude, saturateToWord, stepFixedBlock, stepFixedSection,
-} from '../../shared/control/fixedModel';
+} from '../../shared/firmware/index';
 import type { FixedCoefficients } from '../../shared/control/types';
 import { referenceDf1 } from './fixedReference';
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { goldenVectors, sinTurns, xorshift32, VECTOR_MAX_SATURATED_FRACTION } from '../../shared/control/vectors';
-import { runFixedBlock, safeInputMagnitude } from '../../shared/control/fixedModel';
+import { goldenVectors, sinTurns, xorshift32, VECTOR_MAX_SATURATED_FRACTION } from '../../shared/firmware/vectors';
+import { runFixedBlock, safeInputMagnitude } from '../../shared/firmware/index';
 import type { FixedCoefficients } from '../../shared/control/types';
 import { expectClose } from '../helpers/expectClose';
 import { fixtureAnalysis, referenceBlock } from './fixedReference';

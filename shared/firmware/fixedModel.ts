@@ -1,4 +1,4 @@
-import type { FixedCoefficients } from './types';
+import type { FixedCoefficients } from '../control/index';
 
 /**
  * The reference fixed-point arithmetic of CONTRACT section 3, as data, so the exported C source,
@@ -262,21 +262,30 @@ export function resetFixedSectionState(state: FixedSectionState): void {
 /**
  * One sample of the bit-exact Direct Form I section (rules in {@link FIXED_ARITHMETIC}).
  *
+ * With a `limit` below the word's maximum the output, and therefore the stored output state, is
+ * clamped to +-limit instead of +-(2^(W-1) - 1): the section state stays bounded while a block
+ * output is saturated (the PR limit of limits.ts).
+ *
  * @param state - section state (mutated: delays shift by one sample).
  * @param input - x[n], an integer within +-(2^(W-1) - 1) (input LSB).
+ * @param limit - output clamp in output LSB, an integer in [0, 2^(W-1) - 1] (default the word's maximum).
  * @returns y[n], the saturated W-bit output (output LSB).
- * @throws FixedArithmeticError for a non-integer or out-of-range input, AccumulatorOverflowError
- *   when the accumulator bound fails.
+ * @throws FixedArithmeticError for a non-integer or out-of-range input or limit,
+ *   AccumulatorOverflowError when the accumulator bound fails.
  * @example
  * const s = createFixedSectionState({ wordBits: 16, fracBits: 14, b: [16384, 0, 0], a: [16384, 0, 0], qFormat: 'Q2.14' });
  * stepFixedSection(s, 1234); // => 1234 (unity gain)
  */
-export function stepFixedSection(state: FixedSectionState, input: number): number {
+export function stepFixedSection(state: FixedSectionState, input: number, limit: number = state.signalMax): number {
   const fixed = state.fixed;
-  const max = state.signalMax;
-  if (!Number.isInteger(input) || Math.abs(input) > max) {
-    throw new FixedArithmeticError('invalid-input', `input sample ${state.sampleIndex} must be an integer within +-${max}, got ${input}`);
+  const word = state.signalMax;
+  if (!Number.isInteger(input) || Math.abs(input) > word) {
+    throw new FixedArithmeticError('invalid-input', `input sample ${state.sampleIndex} must be an integer within +-${word}, got ${input}`);
   }
+  if (!Number.isInteger(limit) || limit < 0 || limit > word) {
+    throw new FixedArithmeticError('invalid-input', `limit must be an integer in [0, ${word}], got ${limit}`);
+  }
+  const max = limit;
   const b0 = fixed.b[0];
   const b1 = fixed.b[1];
   const b2 = fixed.b[2];
@@ -306,7 +315,8 @@ export function stepFixedSection(state: FixedSectionState, input: number): numbe
       throw new AccumulatorOverflowError(state.sampleIndex, `accumulator bound exceeded at sample ${state.sampleIndex}: sum of |products| + 2^(F-1) = ${bound} > 2^63 - 1`);
     }
     const acc = terms.reduce((s, t) => s + t, 0n) + BigInt(rc);
-    y = saturateToWord(acc >> BigInt(f), fixed.wordBits);
+    const shifted = acc >> BigInt(f);
+    y = shifted > BigInt(max) ? max : shifted < -BigInt(max) ? -max : Number(shifted);
   }
   state.x2 = state.x1;
   state.x1 = input;
@@ -331,74 +341,4 @@ export function stepFixedSection(state: FixedSectionState, input: number): numbe
 export function runFixedSection(fixed: FixedCoefficients, input: readonly number[]): number[] {
   const state = createFixedSectionState(fixed);
   return input.map((x) => stepFixedSection(state, x));
-}
-
-/** State of a block of parallel sections. */
-export interface FixedBlockState {
-  /** W of the block output. */
-  readonly wordBits: number;
-  /** One state per section, in section order. */
-  readonly sections: FixedSectionState[];
-}
-
-/**
- * Creates the reset state of a block of parallel sections.
- *
- * @param sections - quantized sections, all with the same W.
- * @param wordBits - W of the block (must equal every section's W).
- * @returns the block state.
- * @throws FixedArithmeticError when a section's W differs or the block has no section.
- * @example
- * const block = createFixedBlockState([fixedKp, fixedH1], 32);
- */
-export function createFixedBlockState(sections: readonly FixedCoefficients[], wordBits: number): FixedBlockState {
-  if (sections.length === 0) throw new FixedArithmeticError('invalid-coefficients', 'a block needs at least one section');
-  sections.forEach((s, i) => {
-    if (s.wordBits !== wordBits) throw new FixedArithmeticError('invalid-coefficients', `section ${i} has wordBits ${s.wordBits}, the block ${wordBits}`);
-  });
-  return { wordBits, sections: sections.map(createFixedSectionState) };
-}
-
-/**
- * Resets every section of a block.
- *
- * @param state - block state (mutated).
- * @returns nothing.
- * @example
- * resetFixedBlockState(block);
- */
-export function resetFixedBlockState(state: FixedBlockState): void {
-  state.sections.forEach(resetFixedSectionState);
-}
-
-/**
- * One sample of a block: every section steps on the same input; output = sat_W(sum of section outputs).
- *
- * @param state - block state (mutated).
- * @param input - x[n], W-bit integer (input LSB).
- * @returns the saturated block output (output LSB).
- * @example
- * stepFixedBlock(block, 1000);
- */
-export function stepFixedBlock(state: FixedBlockState, input: number): number {
-  let sum = 0;
-  for (const section of state.sections) sum += stepFixedSection(section, input);
-  const max = state.sections[0].signalMax;
-  return sum > max ? max : sum < -max ? -max : sum;
-}
-
-/**
- * Bit-exact run of a block of parallel sections from the reset state:
- * output[n] = sat_W(sum over sections of their saturated outputs).
- *
- * @param sections - quantized sections of the block (same W).
- * @param input - W-bit integer input samples (input LSB).
- * @param wordBits - W.
- * @returns W-bit integer outputs (output LSB).
- * @example
- * runFixedBlock([{ wordBits: 16, fracBits: 14, b: [16384, 0, 0], a: [16384, 0, 0], qFormat: 'Q2.14' }], [5, -7], 16); // => [5, -7]
- */
-export function runFixedBlock(sections: readonly FixedCoefficients[], input: readonly number[], wordBits: number): number[] {
-  const state = createFixedBlockState(sections, wordBits);
-  return input.map((x) => stepFixedBlock(state, x));
 }

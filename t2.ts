@@ -1,0 +1,11 @@
+import { readFileSync, writeFileSync, mkdirSync } from 'node:fs';
+import { analyzeDesign } from './shared/control/index';
+import { parseDesign } from './shared/api/design';
+import { buildBundle } from './server/export/index';
+const [file, fp, out] = process.argv.slice(2);
+const d = JSON.parse(readFileSync(file, 'utf8'));
+Object.assign(d.fixedPoint, JSON.parse(fp));
+const p = parseDesign(d); if (!p.ok) throw new Error(JSON.stringify(p.issues));
+const a = analyzeDesign(p.design, { sweepPoints: 0, responseSamples: 0 });
+const b = await buildBundle({ design: p.design, analysis: a, version: '1.0.0', revision: 1, createdAt: new Date('2026-01-01T00:00:00Z'), draft: false, toolVersion: '0.1.0' });
+writeFileSync(out, b.zip);
