@@ -40,7 +40,8 @@ describe('make check on exported bundles', () => {
     const { dir, entries } = await unpack(bundle.zip);
     const root = entries[0].name;
     const result = makeCheck(join(dir, root));
-    const vectorCount = analysisFor(design).blocks.length * 3;
+    // three per block (step, chirp, noise) and three limited steps (DC-link PI, PLL PI, PR)
+    const vectorCount = analysisFor(design).blocks.length * 3 + 3;
     expect(result.output).toContain(`${vectorCount} passed, 0 failed`);
     expect(result.output).not.toMatch(/warning:|error:|^FAIL /m);
     expect(result.output.match(/^PASS /gm)?.length).toBe(vectorCount);
@@ -58,7 +59,7 @@ describe('make check on exported bundles', () => {
       expect(build.status).toBe(0);
       const run = spawnSync('./run_ub', [], { cwd: root, encoding: 'utf8' });
       expect(run.stderr).toBe('');
-      expect(run.stdout).toContain('18 passed, 0 failed');
+      expect(run.stdout).toContain('21 passed, 0 failed');
       expect(run.status).toBe(0);
     }
   });
@@ -215,10 +216,12 @@ describe('DRAFT, safety caution and header', () => {
     const entries = await readZip(bundle.zip);
     const report = entries.find((e) => e.name.endsWith('REPORT.md'))!.content.toString('utf8');
     for (const block of analysis.blocks) {
-      expect(report).toContain(`### ${block.id} (${block.method})`);
+      expect(report).toContain(`### ${block.id} (${block.method}, g = `);
       for (const s of block.sections) {
-        expect(report).toContain(`**${s.role}** (${s.kind}), ${s.fixed.qFormat}, F = ${s.fixed.fracBits}`);
-        expect(report).toContain(`| B0 | ${String(s.b[0]).includes('.') || String(s.b[0]).includes('e') ? String(s.b[0]) : `${s.b[0]}.0`} | ${s.fixed.b[0]} |`);
+        expect(report).toContain(`**${s.role}** (${s.kind}), ${s.fixed.qFormat}, F = ${s.fixed.fracBits}, direct-form-1`);
+        // the integers quantize the scaled doubles (CONTRACT section 7)
+        const real = s.scaled!.b[0];
+        expect(report).toContain(`| B0 | ${String(real).includes('.') || String(real).includes('e') ? String(real) : `${real}.0`} | ${s.fixed.b[0]} |`);
       }
     }
     for (const loop of analysis.loops) expect(report).toMatch(new RegExp(`^\\| ${loop.id} \\| `, 'm'));
