@@ -25,7 +25,7 @@ interface RefCase {
   timeSamples: number;
   openLoop: Record<LoopId, { frequencyHz: number[]; magnitudeDb: number[]; phaseDegWrapped: number[] }>;
   time: Record<'current-step' | 'pll-phase-step' | 'dc-link-load-step', number[]>;
-  sections: Record<string, { b: number[]; a: number[] }[]>;
+  sections: Record<string, { b: number[]; a: number[]; gain: number; scaledB: number[]; fixed: { fracBits: number; b: number[]; a: number[] } }[]>;
   loops: Record<LoopId, RefLoop>;
 }
 const fixture = JSON.parse(readFileSync(new URL('../fixtures/scipy/analysis.json', import.meta.url), 'utf8')) as { generator: string; cases: RefCase[] };
@@ -46,6 +46,25 @@ describe(`analyzeDesign against ${fixture.generator}`, () => {
         const scale = Math.max(...want.b.map(Math.abs), ...want.a.map(Math.abs));
         expectClose(got?.b ?? [], want.b, { rtol: 1e-9, atol: 1e-15 * scale }, `${blockId}[${i}].b`);
         expectClose(got?.a ?? [], want.a, { rtol: 1e-9, atol: 1e-15 * scale }, `${blockId}[${i}].a`);
+      });
+    }
+  });
+
+  // CONTRACT section 7: g from the per-unit bases, scaled = g * b, and `fixed` the quantization of
+  // `scaled` with the F rule; the generator computes g from the contract formula and quantizes in
+  // exact rational arithmetic.
+  it.each(cases)('%s: scaled numerators and their integers match the reference', (_name, ref) => {
+    const result = analyzeDesign(ref.design, { sweepPoints: 0, responseSamples: 0 });
+    for (const [blockId, sections] of Object.entries(ref.sections)) {
+      const block = result.blocks.find((b) => b.id === blockId)!;
+      sections.forEach((want, i) => {
+        const got = block.sections[i];
+        expectClose(got.scaled?.gain ?? NaN, want.gain, { rtol: 1e-15 }, `${blockId}[${i}] g`);
+        expect(got.scaled?.units).toBe(ref.design.signals?.units ?? 'per-unit');
+        const scale = Math.max(...want.scaledB.map(Math.abs));
+        expectClose(got.scaled?.b ?? [], want.scaledB, { rtol: 1e-9, atol: 1e-15 * scale }, `${blockId}[${i}] g*b`);
+        expect(got.scaled?.a).toEqual(got.a);
+        expect({ fracBits: got.fixed.fracBits, b: got.fixed.b, a: got.fixed.a }, `${blockId}[${i}] integers`).toEqual(want.fixed);
       });
     }
   });
