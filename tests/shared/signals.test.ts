@@ -4,9 +4,10 @@ import { describe, expect, it } from 'vitest';
 import { parseDesign, symbolPrefixProblem } from '../../shared/api/design';
 import { contractExampleDesign } from '../../shared/api/designExample';
 import {
-  blockScaleFactor, blockSignals, conversionConstants, defaultCarrierCounts, perUnitBases, resolveSignals,
+  analyzeDesign, blockScaleFactor, blockSignals, conversionConstants, defaultCarrierCounts, perUnitBases, resolveSignals,
   type DesignInput,
 } from '../../shared/control';
+import { firmwareSet } from '../../shared/firmware';
 import { expectClose } from '../helpers/expectClose';
 
 function t1(): DesignInput {
@@ -142,5 +143,103 @@ describe('schema of the new sections', () => {
     const got = symbolPrefixProblem(prefix);
     if (problem === null) expect(got).toBeNull();
     else expect(got).toMatch(problem);
+  });
+});
+
+describe('scaled sections of T-1 by hand (CONTRACT section 7: numerator times g, denominator unchanged)', () => {
+  // Given gains, so every number below is arithmetic on the design: kp_pr = 7.6 V/A, DC-link PI
+  // 0.5 A/V + 10 A/(V s), PLL PI 150 + 10000/s; Ts = 1/16000 s.
+  function given(): DesignInput {
+    const d = t1();
+    d.currentLoop = { ...d.currentLoop, kp: 7.6 };
+    d.voltageLoop = { ...d.voltageLoop, kp: 0.5, ki: 10 };
+    d.pll = { ...d.pll, kp: 150, ki: 10000 };
+    return d;
+  }
+  const blocksOf = (d: DesignInput) => analyzeDesign(d, { sweepPoints: 0, responseSamples: 0 }).blocks;
+
+  it('current-pr kp: 7.6 x (20 sqrt(2) / 380) = 0.4 sqrt(2) = 0.565685 pu/pu, integer round(0.4 sqrt(2) 2^30) in Q2.30', () => {
+    const kp = blocksOf(given()).find((b) => b.id === 'current-pr')!.sections[0];
+    expectClose(kp.scaled!.b[0], 0.4 * Math.SQRT2, { rtol: 1e-15 }, 'g kp');
+    expect(kp.scaled!.a).toEqual([1, 0, 0]);
+    expect(kp.fixed.fracBits).toBe(30); // a[0] = 1 caps F at W - 2
+    expect(kp.fixed.b[0]).toBe(Math.round(0.4 * Math.SQRT2 * 2 ** 30));
+    expect(kp.fixed.a[0]).toBe(2 ** 30);
+  });
+
+  it('pll-pi: b0 = (150 + 10000 / 32000) / (100 pi) = 0.478459, b1 = (-150 + 10000 / 32000) / (100 pi); a = [1, -1, 0]', () => {
+    const pll = blocksOf(given()).find((b) => b.id === 'pll-pi')!.sections[0];
+    expectClose(pll.scaled!.b[0], 150.3125 / (100 * Math.PI), { rtol: 1e-14 }, 'b0');
+    expectClose(pll.scaled!.b[1], -149.6875 / (100 * Math.PI), { rtol: 1e-14 }, 'b1');
+    expect(pll.scaled!.a).toEqual([1, -1, 0]);
+    expect(pll.scaled!.gain).toBe(blockScaleFactor(given(), 'pll-pi'));
+  });
+
+  it('voltage-pi: b0 = (0.5 + 10 / 32000) x 380 / (20 sqrt(2)) = 6.72172 (A/V becomes pu/pu)', () => {
+    const pi = blocksOf(given()).find((b) => b.id === 'voltage-pi')!.sections[0];
+    expectClose(pi.scaled!.b[0], (0.5003125 * 380) / (20 * Math.SQRT2), { rtol: 1e-14 }, 'b0');
+    expectClose(pi.scaled!.b[1], (-0.4996875 * 380) / (20 * Math.SQRT2), { rtol: 1e-14 }, 'b1');
+    // |b0| in [4, 8): F = W - 4 = 28 keeps round(b0 2^F) within 2^31 - 1
+    expect(pi.fixed.fracBits).toBe(28);
+  });
+
+  it('SI signals keep the SI numerators (g = 1) and their integers', () => {
+    const d = given();
+    d.signals = { units: 'si' };
+    for (const block of blocksOf(d)) {
+      for (const s of block.sections) {
+        expect(s.scaled!.gain, block.id).toBe(1);
+        expect(s.scaled!.b).toEqual(s.b);
+      }
+    }
+  });
+
+  it('limits in the Q3.29 signal word: round(1.2 2^29), round(0.1 2^29), round(0.95 2^29)', () => {
+    const d = given();
+    const set = firmwareSet(d, analyzeDesign(d, { sweepPoints: 0, responseSamples: 0 }));
+    expect(set.limits.currentReference.word).toBe(644245094);
+    expect(set.limits.pllFrequency.word).toBe(53687091);
+    expect(set.limits.modulation.word).toBe(510027366);
+    expectClose(set.limits.pllFrequency.value, 0.1, { rtol: 1e-15 }, '5 Hz / 50 Hz');
+  });
+});
+
+describe('limit and sensing findings in per-unit words', () => {
+  const findings = (d: DesignInput) => analyzeDesign(d, { sweepPoints: 0, responseSamples: 0 }).checks;
+  const find = (d: DesignInput, id: string) => findings(d).find((c) => c.id === id)!;
+
+  it('defaults: 1.2 pu current clamp (0.2 pu headroom), the rated point needs m = sqrt(2)(230 + 314.16 x 0.0006 x 20)/380 = 0.8700', () => {
+    const d = t1();
+    expect(find(d, 'limits-current-reference')).toMatchObject({ severity: 'info', unit: 'pu' });
+    expectClose(find(d, 'limits-current-reference').value ?? NaN, 1.2, { rtol: 1e-15 }, 'clamp in pu');
+    expect(find(d, 'limits-current-reference').message).toMatch(/0\.2 pu of headroom/);
+    const m = (Math.SQRT2 * (230 + 100 * Math.PI * 0.0006 * 20)) / 380;
+    expectClose(find(d, 'limits-modulation-index').value ?? NaN, m, { rtol: 1e-12 }, 'rated modulation');
+    expect(find(d, 'limits-modulation-index').severity).toBe('info');
+    expect(find(d, 'signals-current-sense-range')).toMatchObject({ severity: 'info', value: 2 });
+  });
+
+  it.each([
+    ['limits-current-reference', (d: DesignInput) => { d.limits = { currentReferencePeakA: 25 }; }, 25 / 28.284271247461902],
+    ['limits-modulation-index', (d: DesignInput) => { d.limits = { modulationIndexMax: 0.85 }; }, null],
+    ['signals-current-sense-range', (d: DesignInput) => { d.signals = { currentSenseFullScaleA: 25 }; }, 25 / 28.284271247461902],
+    ['signals-grid-voltage-sense-range', (d: DesignInput) => { d.signals = { gridVoltageSenseFullScaleV: 300 }; }, 300 / 325.2691193458119],
+    ['signals-dc-voltage-sense-range', (d: DesignInput) => { d.signals = { dcVoltageSenseFullScaleV: 350 }; }, 350 / 380],
+    ['limits-pll-frequency', (d: DesignInput) => { d.limits = { pllFrequencyDeviationHz: 0.5 }; d.envelope = { gridFrequencyHz: [49, 51] }; }, 0.01],
+    ['signals-word-range', (d: DesignInput) => { d.signals = { units: 'si', signalFracBits: 29 }; }, null],
+  ] as const)('%s is an error when the rated operating point already exceeds it', (id, mutate, valuePu) => {
+    const d = t1();
+    mutate(d);
+    const c = find(d, id);
+    expect(c.severity, c.message).toBe('error');
+    expect(c.remedy).toMatch(/\w{5,}/);
+    if (valuePu !== null) expectClose(c.value ?? NaN, valuePu, { rtol: 1e-12 }, `${id} in pu`);
+    expect(analyzeDesign(d, { sweepPoints: 0, responseSamples: 0 }).checks.some((x) => x.severity === 'error')).toBe(true);
+  });
+
+  it('a current sensor below the current clamp but above the rated peak is a warning', () => {
+    const d = t1();
+    d.signals = { currentSenseFullScaleA: 30 };
+    expect(find(d, 'signals-current-sense-range').severity).toBe('warning');
   });
 });
