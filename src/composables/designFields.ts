@@ -1,7 +1,7 @@
 // The design form's fields: where each value lives in `varsmith-design/1`, its label, what it
 // measures and the unit it is shown in. Texts are what the user typed; `readDesignTexts` turns
 // them into a candidate design (SI) plus the errors that are the form's own (unreadable text).
-import type { DesignInput } from '../../shared/control';
+import { resolveSignals, type Arithmetic, type DesignInput, type SectionStructure } from '../../shared/control';
 import { formatInUnit, parseQuantity, type Dimension, type DisplayUnit } from './units';
 
 /** One numeric input of the form. */
@@ -13,6 +13,8 @@ export interface FieldSpec {
   unit: DisplayUnit;
   /** Gains: blank means "designed by rule" (null in the file). */
   optional?: boolean;
+  /** Signals and limits: blank means the documented default (the key is left out of the file). */
+  defaulted?: boolean;
   /** Which filter topology shows the field (absent = always). */
   topology?: 'L' | 'LCL';
   hint?: string;
@@ -88,7 +90,22 @@ export const FIELD_GROUPS: FieldGroup[] = [
       { path: 'reactiveFilter.cutoffHz', label: 'Low-pass cutoff', dimension: 'Hz', unit: u('Hz') },
     ],
   },
+  {
+    id: 'signals', title: 'Signals and limits', fields: [
+      { path: 'signals.currentSenseFullScaleA', label: 'Current sense full scale (peak)', dimension: 'A', unit: u('A'), defaulted: true },
+      { path: 'signals.gridVoltageSenseFullScaleV', label: 'Grid-voltage sense full scale (peak)', dimension: 'V', unit: u('V'), defaulted: true },
+      { path: 'signals.dcVoltageSenseFullScaleV', label: 'DC-link sense full scale', dimension: 'V', unit: u('V'), defaulted: true },
+      { path: 'signals.adcBits', label: 'ADC resolution', dimension: 'count', unit: u('bits'), defaulted: true },
+      { path: 'signals.pwmCarrierCounts', label: 'PWM carrier period', dimension: 'count', unit: u('counts'), defaulted: true },
+      { path: 'limits.currentReferencePeakA', label: 'Current reference limit (peak)', dimension: 'A', unit: u('A'), defaulted: true },
+      { path: 'limits.modulationIndexMax', label: 'Modulation index limit', dimension: 'ratio', unit: u(''), defaulted: true },
+      { path: 'limits.pllFrequencyDeviationHz', label: 'PLL frequency limit (±)', dimension: 'Hz', unit: u('Hz'), defaulted: true },
+    ],
+  },
 ];
+
+/** The optional sections of a design file the form keeps whole (CONTRACT sections 7 and 9). */
+const KEPT_SECTIONS = ['signals', 'limits', 'firmware', 'envelope'] as const;
 
 /** Every numeric field by path. */
 export const FIELD_BY_PATH: Record<string, FieldSpec> = Object.fromEntries(FIELD_GROUPS.flatMap((g) => g.fields).map((f) => [f.path, f]));
@@ -102,6 +119,13 @@ export interface DesignTexts {
   topology: 'L' | 'LCL';
   reactiveOrder: 1 | 2;
   wordBits: 16 | 32;
+  /** `fixedPoint.arithmetic` and `fixedPoint.structure`; null = absent (the default). */
+  arithmetic: Arithmetic | null;
+  structure: SectionStructure | null;
+  /** `firmware.symbolPrefix` as typed (blank = none). */
+  symbolPrefix: string;
+  /** The optional sections as loaded (signals, limits, firmware, envelope): keys the form does not show are kept. */
+  kept: Partial<Pick<DesignInput, (typeof KEPT_SECTIONS)[number]>>;
   harmonics: string;
   /** Per-harmonic gain texts, aligned with the harmonics as typed. */
   resonantGains: string[];
@@ -163,6 +187,10 @@ export function designToTexts(design: DesignInput): DesignTexts {
     topology: design.filter.topology,
     reactiveOrder: design.reactiveFilter.order,
     wordBits: design.fixedPoint.wordBits,
+    arithmetic: design.fixedPoint.arithmetic ?? null,
+    structure: design.fixedPoint.structure ?? null,
+    symbolPrefix: design.firmware?.symbolPrefix ?? '',
+    kept: JSON.parse(JSON.stringify(Object.fromEntries(KEPT_SECTIONS.filter((k) => design[k] !== undefined).map((k) => [k, design[k]])))),
     harmonics: design.currentLoop.harmonics.join(', '),
     resonantGains: design.currentLoop.harmonics.map((_, i) => (gains && typeof gains[i] === 'number' ? formatInUnit(gains[i], RESONANT_GAIN_UNIT) : '')),
     values,
@@ -186,6 +214,8 @@ export function readDesignTexts(texts: DesignTexts): ReadTexts {
   const errors: Record<string, string> = {};
   const candidate: Record<string, unknown> = { format: 'varsmith-design/1', name: texts.name };
   setPath(candidate, 'filter.topology', texts.topology);
+  // Sections the form shows only in part keep every other key as loaded.
+  for (const [key, section] of Object.entries(JSON.parse(JSON.stringify(texts.kept ?? {})) as Record<string, unknown>)) candidate[key] = section;
   for (const field of Object.values(FIELD_BY_PATH)) {
     if (field.topology && field.topology !== texts.topology) continue;
     const text = texts.values[field.path] ?? '';
@@ -194,6 +224,8 @@ export function readDesignTexts(texts: DesignTexts): ReadTexts {
     if (!parsed.ok) {
       errors[field.path] = parsed.message;
       setPath(candidate, field.path, Number.NaN);
+    } else if (parsed.valueSi === null && field.defaulted) {
+      deletePath(candidate, field.path);
     } else if (parsed.valueSi === null && !field.optional) {
       errors[field.path] = 'Required.';
       setPath(candidate, field.path, null);
@@ -224,6 +256,56 @@ export function readDesignTexts(texts: DesignTexts): ReadTexts {
   }
   setPath(candidate, 'reactiveFilter.order', texts.reactiveOrder);
   setPath(candidate, 'fixedPoint.wordBits', texts.wordBits);
+  if (texts.arithmetic) setPath(candidate, 'fixedPoint.arithmetic', texts.arithmetic);
+  if (texts.structure) setPath(candidate, 'fixedPoint.structure', texts.structure);
+  const prefix = (texts.symbolPrefix ?? '').trim();
+  if (prefix === '') deletePath(candidate, 'firmware.symbolPrefix');
+  else setPath(candidate, 'firmware.symbolPrefix', prefix);
+  for (const key of KEPT_SECTIONS) {
+    const section = candidate[key];
+    if (section && typeof section === 'object' && !Array.isArray(section) && Object.keys(section).length === 0) delete candidate[key];
+  }
   if (texts.name.trim() === '') errors.name = 'Give the design a name.';
   return { candidate, errors };
+}
+
+// Removes a key (absent = the documented default); parents are kept (emptied sections are dropped by the caller).
+function deletePath(object: Record<string, unknown>, path: string): void {
+  const keys = path.split('.');
+  let node: unknown = object;
+  for (const key of keys.slice(0, -1)) {
+    if (!node || typeof node !== 'object') return;
+    node = (node as Record<string, unknown>)[key];
+  }
+  if (node && typeof node === 'object') delete (node as Record<string, unknown>)[keys[keys.length - 1]];
+}
+
+/**
+ * The documented defaults of the signal and limit fields for the design the form holds, as
+ * display texts (what a blank field means), from the core's `resolveSignals`.
+ * @param candidate - the candidate design read from the texts (may be incomplete).
+ * @returns display texts by field path; empty when the plant values are not readable yet.
+ */
+export function signalDefaultTexts(candidate: Record<string, unknown>): Record<string, string> {
+  const bare = { ...candidate, signals: {}, limits: {} } as unknown as DesignInput;
+  const out: Record<string, string> = {};
+  try {
+    const r = resolveSignals(bare);
+    const values: Record<string, number> = {
+      'signals.currentSenseFullScaleA': r.currentSenseFullScaleA,
+      'signals.gridVoltageSenseFullScaleV': r.gridVoltageSenseFullScaleV,
+      'signals.dcVoltageSenseFullScaleV': r.dcVoltageSenseFullScaleV,
+      'signals.adcBits': r.adcBits,
+      'signals.pwmCarrierCounts': r.pwmCarrierCounts,
+      'limits.currentReferencePeakA': r.currentReferencePeakA,
+      'limits.modulationIndexMax': r.modulationIndexMax,
+      'limits.pllFrequencyDeviationHz': r.pllFrequencyDeviationHz,
+    };
+    for (const [path, value] of Object.entries(values)) {
+      if (Number.isFinite(value)) out[path] = formatInUnit(Number(value.toPrecision(4)), FIELD_BY_PATH[path].unit);
+    }
+  } catch {
+    // plant values not readable yet: no placeholders
+  }
+  return out;
 }

@@ -6,7 +6,7 @@ import type { DisplayUnit } from './format';
 export { formatInUnit, type DisplayUnit } from './format';
 
 /** Physical dimension of a form quantity, with its SI base symbol. */
-export type Dimension = 'H' | 'F' | 'Hz' | 'V' | 'VA' | 'Ohm' | 's' | 'deg' | 'ratio' | 'count' | 'gain';
+export type Dimension = 'H' | 'F' | 'Hz' | 'V' | 'A' | 'VA' | 'Ohm' | 's' | 'deg' | 'ratio' | 'count' | 'gain';
 
 /** Decimal prefixes accepted in typed units, as powers of ten. */
 const PREFIX_EXPONENT: Record<string, number> = { p: -12, n: -9, u: -6, 'µ': -6, 'μ': -6, m: -3, '': 0, k: 3, M: 6, G: 9 };
@@ -17,6 +17,7 @@ const BASE_SYMBOLS: Record<Dimension, string[]> = {
   F: ['F'],
   Hz: ['Hz', 'hz', 'HZ'],
   V: ['V', 'v'],
+  A: ['A', 'a'],
   VA: ['VA', 'va'],
   Ohm: ['Ω', 'ohm', 'Ohm', 'ohms', 'R'],
   s: ['s'],

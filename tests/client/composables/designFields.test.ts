@@ -1,6 +1,7 @@
 // The form's texts and the design file: display units in, SI out.
 import { describe, expect, it } from 'vitest';
-import { designToTexts, readDesignTexts } from '../../../src/composables/designFields';
+import { designToTexts, readDesignTexts, signalDefaultTexts } from '../../../src/composables/designFields';
+import { parseDesign } from '../../../shared/api/design';
 import { newDesignTemplate } from '../../../src/stores/designs';
 import { expectClose } from '../../helpers/expectClose';
 
@@ -91,5 +92,70 @@ describe('design texts', () => {
     expect(filter.topology).toBe('LCL');
     expect(filter.inductanceH).toBeUndefined();
     expectClose(filter.capacitanceF as number, 4.7e-6, { rtol: 1e-12 });
+  });
+});
+
+describe('signals and limits (CONTRACT section 7)', () => {
+  const full = () => ({
+    ...newDesignTemplate('Bay 5 rig'),
+    signals: { units: 'per-unit' as const, signalFracBits: 28, currentSenseFullScaleA: 40, adcBits: 14 },
+    limits: { currentReferencePeakA: 45, pllFrequencyDeviationHz: 4 },
+    firmware: { symbolPrefix: 'BAY5' },
+    envelope: { shortCircuitRatioMin: 5, gridFrequencyHz: [59.3, 60.5] as [number, number] },
+    fixedPoint: { wordBits: 32 as const, arithmetic: 'float32' as const, structure: 'quantization-robust' as const },
+  });
+
+  it('editing keeps every section, shown or not (units, signal fraction bits, envelope)', () => {
+    const design = full();
+    const texts = designToTexts(design);
+    expect(texts.values['signals.currentSenseFullScaleA']).toBe('40');
+    expect(texts.symbolPrefix).toBe('BAY5');
+    texts.values['grid.voltageRmsV'] = '121';
+    const { candidate, errors } = readDesignTexts(texts);
+    expect(errors).toEqual({});
+    const parsed = parseDesign(candidate);
+    expect(parsed.ok, JSON.stringify(parsed)).toBe(true);
+    const got = (parsed as { ok: true; design: typeof design }).design;
+    expect(got.signals).toEqual(design.signals);
+    expect(got.limits).toEqual(design.limits);
+    expect(got.firmware).toEqual(design.firmware);
+    expect(got.envelope).toEqual(design.envelope);
+    expect(got.fixedPoint).toEqual(design.fixedPoint);
+    expect(got.grid.voltageRmsV).toBe(121);
+  });
+
+  it('a design without the sections reads back without them; typed values add keys in SI, blanks remove them', () => {
+    const plain = newDesignTemplate('Bay 6 rig');
+    const texts = designToTexts(plain);
+    const back = readDesignTexts(texts).candidate;
+    for (const key of ['signals', 'limits', 'firmware', 'envelope']) expect(back).not.toHaveProperty(key);
+    expect((back as { fixedPoint: object }).fixedPoint).toEqual({ wordBits: 32 });
+    texts.values['signals.currentSenseFullScaleA'] = '0.05 kA';
+    texts.values['limits.modulationIndexMax'] = '92 %';
+    texts.symbolPrefix = ' BAY6 ';
+    const typed = readDesignTexts(texts).candidate as { signals: Record<string, number>; limits: Record<string, number>; firmware: Record<string, string> };
+    expect(typed.signals).toEqual({ currentSenseFullScaleA: 50 });
+    expectClose(typed.limits.modulationIndexMax, 0.92, { rtol: 1e-15 });
+    expect(typed.firmware).toEqual({ symbolPrefix: 'BAY6' });
+    texts.values['signals.currentSenseFullScaleA'] = '';
+    texts.values['limits.modulationIndexMax'] = '';
+    texts.symbolPrefix = '';
+    const cleared = readDesignTexts(texts).candidate;
+    for (const key of ['signals', 'limits', 'firmware']) expect(cleared).not.toHaveProperty(key);
+  });
+
+  it('shows the documented defaults of the plant as typed: 2 x and 1.2 x the rated peak current, 100 MHz / (2 fsw) counts', () => {
+    const texts = designToTexts(newDesignTemplate('Bay 7 rig'));
+    // 3.3 kVA at 120 V: Ibase = sqrt(2) 3300 / 120 = 38.89 A (hand arithmetic)
+    const defaults = signalDefaultTexts(readDesignTexts(texts).candidate);
+    expect(defaults['signals.currentSenseFullScaleA']).toBe('77.78');
+    expect(defaults['limits.currentReferencePeakA']).toBe('46.67');
+    expect(defaults['signals.pwmCarrierCounts']).toBe('2500');
+    expect(defaults['signals.adcBits']).toBe('12');
+    expect(defaults['limits.pllFrequencyDeviationHz']).toBe('6');
+    texts.values['rating.apparentPowerVA'] = '6.6';
+    expect(signalDefaultTexts(readDesignTexts(texts).candidate)['signals.currentSenseFullScaleA']).toBe('155.6');
+    texts.values['grid.voltageRmsV'] = 'x';
+    expect(signalDefaultTexts(readDesignTexts(texts).candidate)['signals.currentSenseFullScaleA']).toBeUndefined();
   });
 });
