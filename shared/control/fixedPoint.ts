@@ -362,6 +362,74 @@ export function joinRemedies(parts: readonly (string | null)[]): string {
   return text.charAt(0).toUpperCase() + text.slice(1) + '.';
 }
 
+/** What {@link resonanceDriftCheck} needs. */
+export interface DriftCheckInput {
+  section: Pick<SectionResult, 'kind' | 'role' | 'a' | 'prewarpHz' | 'resonanceHz'>;
+  blockId: BlockResult['id'];
+  /** `<block id>` or `<block id>-<role>` (check ids). */
+  prefix: string;
+  /** The section in words. */
+  where: string;
+  samplePeriodS: number;
+  /** Where the section resonates in the arithmetic of the set (null: its poles turned real). */
+  landedHz: number | null;
+  /** In which arithmetic, e.g. `in Q2.14`, `with binary32 coefficients (Direct Form I)`. */
+  how: string;
+  /** What turned real, e.g. `the quantized poles`. */
+  rounded: string;
+  /** Remedies of the arithmetic (null = not applicable); a wider band-pass is always added. */
+  remedies: (string | null)[];
+}
+
+/**
+ * The resonance-drift finding of one resonator or SOGI section (id from {@link driftCheckId}, limit
+ * from {@link resonanceDriftLimit}): `error` when the resonance moved more than its limit (or has
+ * none), `info` with the drift otherwise.
+ *
+ * @param p - the section, where it lands, in which arithmetic, and the remedies.
+ * @returns the check (value = drift in Hz).
+ * @example
+ * resonanceDriftCheck({ section, blockId: 'current-pr', prefix: 'current-pr-resonant-h1', where: 'h1', samplePeriodS: 5e-5, landedHz: 49.74, how: 'in Q2.14', rounded: 'the quantized poles', remedies: [] }).severity; // => 'error'
+ */
+export function resonanceDriftCheck(p: DriftCheckInput): Check {
+  const { limitHz, basis } = resonanceDriftLimit(p.section, p.samplePeriodS);
+  const designHz = p.section.resonanceHz?.design ?? p.section.prewarpHz;
+  const widen = p.section.kind === 'resonator' ? 'a wider resonator (a larger resonant bandwidth)' : 'a larger SOGI gain (wider band-pass)';
+  const remedy = joinRemedies([...p.remedies, widen]);
+  const base = { id: driftCheckId(p.section.role, p.section.kind, p.prefix), blockId: p.blockId, limit: finiteOrNull(limitHz), unit: 'Hz' };
+  if (designHz === null || designHz === undefined) {
+    return { ...base, severity: 'error', message: `${p.where}: no design frequency known for this resonant section.`, value: null, remedy };
+  }
+  if (p.landedHz === null) {
+    return { ...base, severity: 'error', message: `${p.where}: ${p.rounded} ${p.how} are real, the section no longer resonates at ${fmt(designHz)} Hz.`, value: null, remedy };
+  }
+  const drift = Math.abs(p.landedHz - designHz);
+  const bad = drift > limitHz;
+  return {
+    ...base,
+    severity: bad ? 'error' : 'info',
+    message: bad
+      ? `${p.where}: ${p.how} the resonance lands at ${fmt(p.landedHz)} Hz instead of ${fmt(designHz)} Hz (drift ${fmt(drift)} Hz > ${fmt(limitHz)} Hz, ${basis}); the controller loses its gain at the design frequency.`
+      : `${p.where}: resonance ${p.landedHz.toPrecision(10)} Hz ${p.how}, drift ${fmt(drift)} Hz within ${fmt(limitHz)} Hz (${basis}).`,
+    value: finiteOrNull(drift),
+    remedy: bad ? remedy : null,
+  };
+}
+
+/**
+ * The SOGI has two sections sharing one denominator; one drift finding is kept, the one furthest beyond its limit.
+ *
+ * @param worst - the worst so far (null at first).
+ * @param check - a SOGI section's drift check.
+ * @returns the worse of the two.
+ * @example
+ * worst = keepWorstSogi(worst, check);
+ */
+export function keepWorstSogi(worst: { check: Check; excess: number } | null, check: Check): { check: Check; excess: number } {
+  const excess = check.value === null ? Infinity : check.value - (check.limit ?? 0);
+  return worst === null || excess > worst.excess ? { check, excess } : worst;
+}
+
 /** Remedy naming the quantization-robust structure (what Varsmith produces for resonators, SOGI and low-passes). */
 export const ROBUST_STRUCTURE_REMEDY = 'choose the quantization-robust structure (delta-operator sections with their own coefficient scaling)';
 
@@ -491,31 +559,13 @@ export function fixedPointChecks(blocks: readonly BlockResult[], context: FixedP
       }
 
       if (section.kind === 'resonator' || section.kind === 'sogi-band-pass' || section.kind === 'sogi-low-pass') {
-        const designHz = section.resonanceHz?.design ?? section.prewarpHz;
-        const fixedHz = section.resonanceHz ? section.resonanceHz.fixed : quantizedResonanceHz(fixed, ts);
+        const check = resonanceDriftCheck({
+          section, blockId: block.id, prefix, where, samplePeriodS: ts, how: `in ${format}`, rounded: 'the quantized poles',
+          landedHz: section.resonanceHz ? section.resonanceHz.fixed : quantizedResonanceHz(fixed, ts), remedies: [robustRemedy, wordRemedy],
+        });
         const isSogi = section.kind !== 'resonator';
-        const { limitHz, basis } = resonanceDriftLimit(section, ts);
-        const id = driftCheckId(section.role, section.kind, prefix);
-        const remedy = joinRemedies([robustRemedy, wordRemedy, isSogi ? 'a larger SOGI gain (wider band-pass)' : 'a wider resonator (a larger resonant bandwidth)']);
-        let check: Check;
-        if (designHz === null || designHz === undefined) {
-          check = make(id, 'error', `${where}: no design frequency known for this resonant section.`, null, limitHz, 'Hz', remedy);
-        } else if (fixedHz === null) {
-          check = make(id, 'error', `${where}: the quantized poles in ${format} are real, the section no longer resonates at ${fmt(designHz)} Hz.`, null, limitHz, 'Hz', remedy);
-        } else {
-          const drift = Math.abs(fixedHz - designHz);
-          const bad = drift > limitHz;
-          check = make(id, bad ? 'error' : 'info', bad
-            ? `${where}: in ${format} the resonance lands at ${fmt(fixedHz)} Hz instead of ${fmt(designHz)} Hz (drift ${fmt(drift)} Hz > ${fmt(limitHz)} Hz, ${basis}); the controller loses its gain at the design frequency.`
-            : `${where}: quantized resonance ${fmt(fixedHz)} Hz in ${format}, drift ${fmt(drift)} Hz within ${fmt(limitHz)} Hz (${basis}).`,
-          drift, limitHz, 'Hz', bad ? remedy : null);
-        }
-        if (isSogi) {
-          const excess = check.value === null ? Infinity : check.value - (check.limit ?? 0);
-          if (worstSogi === null || excess > worstSogi.excess) worstSogi = { check, excess };
-        } else {
-          checks.push(check);
-        }
+        if (isSogi) worstSogi = keepWorstSogi(worstSogi, check);
+        else checks.push(check);
       }
 
       const sumInt = delta === null ? fixed.a[0] + fixed.a[1] + fixed.a[2] : delta.codes[4];

@@ -10,7 +10,9 @@
  * 1995, from memory). The C code reproduces it when every float expression is evaluated in float
  * (FLT_EVAL_METHOD == 0, C99 5.2.4.2.2) and no multiply-add is fused (`-ffp-contract=off`).
  */
-import { driftCheckId, joinRemedies, LOW_PASS_DC_GAIN_TOLERANCE, maxPoleRadius, resonanceDriftLimit, ROBUST_STRUCTURE_REMEDY } from './fixedPoint';
+import {
+  joinRemedies, keepWorstSogi, LOW_PASS_DC_GAIN_TOLERANCE, maxPoleRadius, resonanceDriftCheck, ROBUST_STRUCTURE_REMEDY,
+} from './fixedPoint';
 import { sectionName } from './names';
 import { resonanceHzFromDenominator } from './resonance';
 import { deltaResonanceHz } from './deltaOperator';
@@ -260,28 +262,13 @@ export function float32Checks(blocks: readonly BlockResult[], context: Float32Ch
         id, severity, message, value: value !== null && Number.isFinite(value) ? value : null, limit, unit, blockId: block.id, remedy,
       });
       if (section.resonanceHz) {
-        const designHz = section.resonanceHz.design;
-        const { limitHz, basis } = resonanceDriftLimit(section, ts);
+        const check = resonanceDriftCheck({
+          section, blockId: block.id, prefix, where, samplePeriodS: ts, how: `with binary32 coefficients (${form})`, rounded: 'the poles',
+          landedHz: f32.resonanceHz, remedies: [robust],
+        });
         const isSogi = section.kind !== 'resonator';
-        const remedy = joinRemedies([robust, isSogi ? 'a larger SOGI gain (wider band-pass)' : 'a wider resonator (a larger resonant bandwidth)']);
-        const id = driftCheckId(section.role, section.kind, prefix);
-        let check: Check;
-        if (f32.resonanceHz === null) {
-          check = make(id, 'error', `${where}: the binary32 poles (${form}) are real; the section no longer resonates at ${designHz} Hz.`, null, limitHz, 'Hz', remedy);
-        } else {
-          const drift = Math.abs(f32.resonanceHz - designHz);
-          const bad = drift > limitHz;
-          check = make(id, bad ? 'error' : 'info', bad
-            ? `${where}: with binary32 coefficients (${form}) the resonance lands at ${f32.resonanceHz.toPrecision(8)} Hz instead of ${designHz} Hz (drift ${drift.toPrecision(3)} Hz > ${limitHz.toPrecision(3)} Hz, ${basis}).`
-            : `${where}: binary32 resonance ${f32.resonanceHz.toPrecision(10)} Hz (${form}), drift ${drift.toPrecision(3)} Hz within ${limitHz.toPrecision(3)} Hz (${basis}).`,
-          drift, limitHz, 'Hz', bad ? remedy : null);
-        }
-        if (isSogi) {
-          const excess = check.value === null ? Infinity : check.value - (check.limit ?? 0);
-          if (worstSogi === null || excess > worstSogi.excess) worstSogi = { check, excess };
-        } else {
-          checks.push(check);
-        }
+        if (isSogi) worstSogi = keepWorstSogi(worstSogi, check);
+        else checks.push(check);
       }
       const designDc = section.scaled ? sumOf(section.scaled.b) / sumOf(section.scaled.a) : null;
       if ((section.kind === 'low-pass' || section.kind === 'sogi-low-pass') && designDc !== null && designDc !== 0 && f32.dcGain !== null) {
