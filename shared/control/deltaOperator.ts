@@ -56,7 +56,7 @@ export const DELTA_COEFFICIENT_NAMES = ['b0', 'd1', 'd2', 'c1', 'c2'] as const;
  * @param tustinConstant - K in 1/s.
  * @returns [b0, d1, d2, c1, c2] (dimensionless).
  * @example
- * bilinearBiquadDelta([0, 0, 1], [0, 1, 1], 2); // => [1/3, 1/3, 2/3, 5/3, 2/3] (a1 = -1/3: c1 = 2 + a1, c2 = 1 + a1)
+ * bilinearBiquadDelta([0, 0, 1], [0, 1, 1], 2); // => [1/3, 1, 2/3, 5/3, 2/3] (b = [1/3, 1/3], a1 = -1/3: d1 = 2 b0 + b1, c1 = 2 + a1, c2 = 1 + a1)
  */
 export function bilinearBiquadDelta(num: readonly [number, number, number], den: readonly [number, number, number], tustinConstant: number): DeltaTaps {
   const k = tustinConstant;
@@ -172,7 +172,7 @@ export function stateGuardBits(wordBits: number, fracBits: readonly number[]): n
  * @param wordBits - W.
  * @returns `{ code, fracBits }`.
  * @example
- * quantizeOwnScale(2.467e-4, 16); // => { code: 32334, fracBits: 27 }
+ * quantizeOwnScale(2.467e-4, 16); // => { code: 16556, fracBits: 26 }
  */
 export function quantizeOwnScale(value: number, wordBits: number): { code: number; fracBits: number } {
   if (value === 0) return { code: 0, fracBits: wordBits - 2 };
@@ -189,7 +189,7 @@ export function quantizeOwnScale(value: number, wordBits: number): { code: numbe
  * @param wordBits - W (16 or 32 in designs).
  * @returns the integers, their fraction bits and Q formats, and G.
  * @example
- * quantizeDelta([2.4999e-5, 4.9998e-5, 0, 2.4674e-4, 2.4674e-4], 16).fracBits; // => [30, 29, 14, 27, 27]
+ * quantizeDelta([2.4999e-5, 4.9998e-5, 0, 2.4674e-4, 2.4674e-4], 16).fracBits; // => [30, 29, 14, 26, 26]
  */
 export function quantizeDelta(taps: readonly number[], wordBits: number): DeltaFixedCoefficients {
   const quantized = taps.map((c) => quantizeOwnScale(c, wordBits));
@@ -209,7 +209,7 @@ export function quantizeDelta(taps: readonly number[], wordBits: number): DeltaF
  * @param fixed - quantized delta coefficients.
  * @returns [b0, d1, d2, c1, c2] as doubles (exact).
  * @example
- * dequantizeDelta({ wordBits: 16, codes: [1, 0, 0, 16384, 8192], fracBits: [14, 14, 14, 14, 14], qFormats: [], guardBits: 41 }); // => [2^-14, 0, 0, 1, 0.5]
+ * dequantizeDelta({ wordBits: 16, codes: [1, 0, 0, 16384, 8192], fracBits: [14, 14, 14, 14, 14], qFormats: [], guardBits: 41 }); // => [6.103515625e-5, 0, 0, 1, 0.5]
  */
 export function dequantizeDelta(fixed: DeltaFixedCoefficients): DeltaTaps {
   const v = fixed.codes.map((c, i) => scaleByPowerOfTwo(c, -fixed.fracBits[i]));

@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeDesign, blockSignals, conversionConstants, type DesignInput } from '../../shared/control/index';
@@ -67,6 +67,21 @@ describe('signal table and constants of the header', () => {
     expect(header).toMatch(/_LIMIT_CURRENT_REFERENCE INT32_C\(644245094\)/);
     expect(header).toMatch(/_LIMIT_PLL_FREQUENCY INT32_C\(53687091\)/);
     expect(header).toMatch(/_LIMIT_MODULATION INT32_C\(510027366\)/);
+  });
+});
+
+describe('every demo design states every block\'s signals', () => {
+  const examples = readdirSync('examples').filter((f) => f.endsWith('.json')).sort();
+  it.each(examples)('%s', (file) => {
+    const design = JSON.parse(readFileSync(join('examples', file), 'utf8')) as DesignInput;
+    const header = renderCoefficientHeader(design, analysisOf(design), META);
+    const lines = header.split('\n');
+    const format = design.fixedPoint.wordBits === 16 ? 'Q3.13' : 'Q3.29';
+    for (const s of blockSignals(design)) {
+      const row = lines.find((l) => l.startsWith(` *   ${s.blockId} `));
+      expect(row, s.blockId).toBeDefined();
+      for (const part of [s.input.quantity, s.output.quantity, `${s.input.unit} -> ${s.output.unit}`, format]) expect(row, `${s.blockId}: ${part}`).toContain(part);
+    }
   });
 });
 
