@@ -29,11 +29,14 @@ export interface Booted {
 export async function boot(config: Config, options: { seed?: boolean; clientDir?: string } = {}): Promise<Booted> {
   const db = await openDatabase(config);
   initModels(db.sequelize);
-  await migrate(db.sequelize);
   const log = (m: string) => { if (config.logLevel !== 'silent') process.stderr.write(`${m}\n`); };
   const mailer = await createMailer(config, db, log);
   const ctx: AppContext = { config, db, mailer };
-  const seeded = options.seed === false ? false : await seedIfEmpty(ctx);
+  // Processes starting together on one PostgreSQL database migrate and seed one after the other.
+  const seeded = await db.exclusively(async () => {
+    await migrate(db.sequelize);
+    return options.seed === false ? false : seedIfEmpty(ctx);
+  });
   const app = createApp(ctx, { clientDir: options.clientDir });
   return { app, ctx, seeded, close: async () => { await mailer.close(); await db.close(); } };
 }

@@ -26,11 +26,11 @@ export async function insertAudit(row: Omit<AuditRow, 'id' | 'createdAt'>, trans
 }
 
 /**
- * Lists entries, newest first.
- * @param q - filters.
- * @returns the rows.
+ * One page of entries, newest first, and how many match.
+ * @param q - filters and page.
+ * @returns the rows of the page and the total.
  */
-export async function findAudit(q: ListAuditQuery): Promise<AuditRow[]> {
+export async function findAudit(q: ListAuditQuery): Promise<{ rows: AuditRow[]; total: number }> {
   const where: WhereOptions = {};
   const w = where as Record<string | symbol, unknown>;
   if (q.action) w.action = q.action;
@@ -38,9 +38,12 @@ export async function findAudit(q: ListAuditQuery): Promise<AuditRow[]> {
   if (q.targetType) w.targetType = q.targetType;
   if (q.targetId) w.targetId = q.targetId;
   if (q.since || q.until) w.createdAt = { ...(q.since ? { [Op.gte]: new Date(q.since) } : {}), ...(q.until ? { [Op.lte]: new Date(q.until) } : {}) };
-  const rows = await AuditEventModel.findAll({ where, order: [['id', 'DESC']], limit: q.limit });
-  return rows.map((m) => ({
+  const [total, rows] = await Promise.all([
+    AuditEventModel.count({ where }),
+    AuditEventModel.findAll({ where, order: [['id', 'DESC']], limit: q.limit, offset: q.offset }),
+  ]);
+  return { total, rows: rows.map((m) => ({
     id: m.id, actorKind: m.actorKind, actorId: m.actorId, actorLabel: m.actorLabel, action: m.action,
     targetType: m.targetType, targetId: m.targetId, details: JSON.parse(m.details) as Record<string, unknown>, createdAt: m.createdAt,
-  }));
+  })) };
 }

@@ -1,5 +1,6 @@
 // The audit log for admins.
 import { listAuditQuerySchema } from '../../shared/api/admin';
+import { sendPage } from '../middleware/page';
 import { route } from '../middleware/route';
 import { presentAudit } from './presenter';
 import { searchAudit } from './service';
@@ -10,9 +11,9 @@ export const auditRoutes = [
   route({
     method: 'get', path: '/admin/audit', access: ['admin'], schema: { query: listAuditQuerySchema },
     handler: async ({ input, res }) => {
-      const rows = await searchAudit(input.query);
+      const { rows, total } = await searchAudit(input.query);
       const labels = await targetLabels(rows);
-      res.json(rows.map((row) => presentAudit(row, targetLabelOf(labels, row))));
+      sendPage(res, rows.map((row) => presentAudit(row, targetLabelOf(labels, row))), total);
     },
   }),
 ];

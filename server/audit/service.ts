@@ -23,9 +23,9 @@ export async function record(transaction: Transaction, actor: Actor | null, acti
 
 /**
  * Reads the log.
- * @param q - filters.
- * @returns entries, newest first.
+ * @param q - filters and page.
+ * @returns one page of entries, newest first, and how many match.
  */
-export function searchAudit(q: ListAuditQuery): Promise<AuditRow[]> {
+export function searchAudit(q: ListAuditQuery): Promise<{ rows: AuditRow[]; total: number }> {
   return findAudit(q);
 }

@@ -3,15 +3,15 @@ import type { DesignDetail, DesignSummary } from '../../shared/api/designs';
 import { presentPerson } from '../users/presenter';
 import { presentRevisionSummary } from '../revisions/presenter';
 import { presentReleaseSummary } from '../releases/presenter';
-import type { UserRow } from '../users/repository';
-import type { RevisionRow } from '../revisions/repository';
+import type { PersonRow } from '../users/repository';
+import type { RevisionSummaryRow } from '../revisions/repository';
 import type { ReleaseRow } from '../releases/repository';
-import type { DesignRow } from './repository';
+import type { DesignListRow, DesignRow } from './repository';
 
 /** What a design row is shown with. */
 export interface DesignRelations {
-  owner: UserRow | null;
-  latestRevision: { row: RevisionRow; author: UserRow | null } | null;
+  owner: PersonRow | null;
+  latestRevision: { row: RevisionSummaryRow; author: PersonRow | null } | null;
   latestRelease: { row: ReleaseRow; revisionNumber: number } | null;
 }
 
@@ -21,7 +21,7 @@ export interface DesignRelations {
  * @param rel - related rows.
  * @returns the DTO.
  */
-export function presentDesignSummary(row: DesignRow, rel: DesignRelations): DesignSummary {
+export function presentDesignSummary(row: DesignListRow, rel: DesignRelations): DesignSummary {
   return {
     id: row.id, name: row.name, owner: presentPerson(rel.owner), version: row.version,
     createdAt: row.createdAt.toISOString(), updatedAt: row.updatedAt.toISOString(),

@@ -1,6 +1,9 @@
 // Design storage; returns plain objects with the working copy parsed.
-import { Op, type Transaction } from 'sequelize';
+import { literal, Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import type { DesignInput } from '../../shared/control';
+import type { DesignSort, ListDesignsQuery } from '../../shared/api/designs';
+import { lockFor } from '../db/connection';
+import { textContains } from '../db/filters';
 import { DesignModel } from './model';
 
 /** A design row. */
@@ -14,16 +17,64 @@ export interface DesignRow {
   updatedAt: Date;
 }
 
-const plain = (m: DesignModel): DesignRow => ({ id: m.id, name: m.name, ownerId: m.ownerId, design: JSON.parse(m.content) as DesignInput, version: m.version, createdAt: m.createdAt, updatedAt: m.updatedAt });
+/** A design as lists show it: no working copy. */
+export type DesignListRow = Omit<DesignRow, 'design'>;
+
+const LIST_ATTRIBUTES = ['id', 'name', 'ownerId', 'version', 'createdAt', 'updatedAt'] as const;
+
+const listed = (m: DesignModel): DesignListRow => ({ id: m.id, name: m.name, ownerId: m.ownerId, version: m.version, createdAt: m.createdAt, updatedAt: m.updatedAt });
+const plain = (m: DesignModel): DesignRow => ({ ...listed(m), design: JSON.parse(m.content) as DesignInput });
+
+const ORDERS: Record<DesignSort, Order> = {
+  'name': [['name', 'ASC'], ['id', 'ASC']],
+  '-name': [['name', 'DESC'], ['id', 'DESC']],
+  'updatedAt': [['updatedAt', 'ASC'], ['id', 'ASC']],
+  '-updatedAt': [['updatedAt', 'DESC'], ['id', 'DESC']],
+};
 
 /**
- * Lists designs by name, optionally filtered.
- * @param q - case-insensitive substring of the name.
- * @returns the rows.
+ * One page of designs (without their working copies) and how many match.
+ * @param q - name filter, status of the latest revision, order, page.
+ * @returns the rows of the page and the total.
  */
-export async function listDesignRows(q?: string): Promise<DesignRow[]> {
-  const where = q ? { name: { [Op.like]: `%${q.replace(/[%_]/g, '')}%` } } : {};
-  return (await DesignModel.findAll({ where, order: [['name', 'ASC']] })).map(plain);
+export async function listDesignRows(q: ListDesignsQuery): Promise<{ rows: DesignListRow[]; total: number }> {
+  const conditions: WhereOptions[] = [];
+  if (q.q) conditions.push(textContains('Design.name', q.q));
+  if (q.status) {
+    const status = DesignModel.sequelize!.escape(q.status);
+    // Designs whose newest revision has the status (index revisions_design_number).
+    conditions.push({ id: { [Op.in]: literal(`(SELECT r.design_id FROM revisions r WHERE r.status = ${status} AND r.number = (SELECT MAX(r2.number) FROM revisions r2 WHERE r2.design_id = r.design_id))`) } });
+  }
+  const where: WhereOptions = conditions.length > 0 ? { [Op.and]: conditions } : {};
+  const [total, rows] = await Promise.all([
+    DesignModel.count({ where }),
+    DesignModel.findAll({ where, attributes: [...LIST_ATTRIBUTES], order: ORDERS[q.sort], limit: q.limit, offset: q.offset }),
+  ]);
+  return { rows: rows.map(listed), total };
+}
+
+/**
+ * Design names by id, in one query.
+ * @param ids - design ids (one page of rows' worth).
+ * @returns the names found, by id.
+ */
+export async function designNames(ids: readonly number[]): Promise<Map<number, string>> {
+  const unique = [...new Set(ids)];
+  if (unique.length === 0) return new Map();
+  const rows = await DesignModel.findAll({ where: { id: unique }, attributes: ['id', 'name'] });
+  return new Map(rows.map((m) => [m.id, m.name]));
+}
+
+/**
+ * Reads a design and locks its row until the transaction ends: revision numbers and release
+ * versions of the design are allocated one transaction at a time, in every process.
+ * @param id - design id.
+ * @param transaction - the write transaction.
+ * @returns the row or null.
+ */
+export async function lockDesign(id: number, transaction: Transaction): Promise<DesignRow | null> {
+  const m = await DesignModel.findByPk(id, lockFor(transaction));
+  return m ? plain(m) : null;
 }
 
 /**
@@ -35,6 +86,24 @@ export async function listDesignRows(q?: string): Promise<DesignRow[]> {
 export async function findDesign(id: number, transaction?: Transaction): Promise<DesignRow | null> {
   const m = await DesignModel.findByPk(id, { transaction });
   return m ? plain(m) : null;
+}
+
+/**
+ * Whether a design exists (reads no working copy).
+ * @param id - design id.
+ * @returns true when it does.
+ */
+export async function designExists(id: number): Promise<boolean> {
+  return (await DesignModel.findByPk(id, { attributes: ['id'] })) !== null;
+}
+
+/**
+ * The id of the design with this exact name (reads no working copy).
+ * @param name - design name.
+ * @returns the id or null.
+ */
+export async function designIdByName(name: string): Promise<number | null> {
+  return (await DesignModel.findOne({ where: { name }, attributes: ['id'] }))?.id ?? null;
 }
 
 /**

@@ -3,7 +3,8 @@ import { idParamsSchema } from '../../shared/api/common';
 import { createDesignRequestSchema, listDesignsQuerySchema, saveDesignRequestSchema } from '../../shared/api/designs';
 import { route } from '../middleware/route';
 import { presentDesignDetail, presentDesignSummary } from './presenter';
-import { relationsOf } from './relations';
+import { relationsOf, relationsOfAll } from './relations';
+import { sendPage } from '../middleware/page';
 import { createDesign, getDesign, listDesigns, saveDesign } from './service';
 import { draftBundle } from '../releases/service';
 
@@ -12,8 +13,9 @@ export const designRoutes = [
   route({
     method: 'get', path: '/designs', access: ['engineer', 'reviewer', 'admin'], schema: { query: listDesignsQuerySchema },
     handler: async ({ input, res }) => {
-      const rows = await listDesigns(input.query.q);
-      res.json(await Promise.all(rows.map(async (r) => presentDesignSummary(r, await relationsOf(r)))));
+      const { rows, total } = await listDesigns(input.query);
+      const relations = await relationsOfAll(rows);
+      sendPage(res, rows.map((r, i) => presentDesignSummary(r, relations[i])), total);
     },
   }),
   route({

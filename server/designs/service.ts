@@ -1,17 +1,18 @@
 // Designs: create, list, read and save working copies with an optimistic lock.
 import type { DesignInput } from '../../shared/control';
+import type { ListDesignsQuery } from '../../shared/api/designs';
 import { AppError, conflict, notFound } from '../errors';
 import { record } from '../audit/service';
 import type { AppContext, UserActor } from '../middleware/context';
-import { findDesign, findDesignByName, insertDesign, listDesignRows, updateDesignIfVersion, type DesignRow } from './repository';
+import { findDesign, findDesignByName, insertDesign, listDesignRows, updateDesignIfVersion, type DesignListRow, type DesignRow } from './repository';
 import { requireValidDesign } from './designFile';
 
 /**
  * Lists designs.
- * @param q - optional name filter.
- * @returns rows by name.
+ * @param q - name and status filters, order, page.
+ * @returns one page of rows and how many match.
  */
-export function listDesigns(q?: string): Promise<DesignRow[]> {
+export function listDesigns(q: ListDesignsQuery): Promise<{ rows: DesignListRow[]; total: number }> {
   return listDesignRows(q);
 }
 

@@ -1,6 +1,7 @@
 // Captured-mail storage; returns plain objects.
 import type { Transaction } from 'sequelize';
-import { Op } from 'sequelize';
+import type { ListMailQuery } from '../../shared/api/admin';
+import { textContains } from '../db/filters';
 import { MailMessageModel } from './model';
 
 /** A captured message. */
@@ -23,14 +24,15 @@ export async function insertMail(row: Omit<MailRow, 'id' | 'createdAt'>, transac
 }
 
 /**
- * Lists messages, newest first.
- * @param q - optional recipient filter and limit.
- * @returns the rows.
+ * One page of messages, newest first, and how many match.
+ * @param q - optional recipient filter (case-insensitive part of an address) and page.
+ * @returns the rows of the page and the total.
  */
-export async function findMail(q: { to?: string; limit: number }): Promise<MailRow[]> {
-  const rows = await MailMessageModel.findAll({
-    where: q.to ? { recipients: { [Op.like]: `%${q.to.replace(/[%_]/g, '')}%` } } : {},
-    order: [['id', 'DESC']], limit: q.limit,
-  });
-  return rows.map((m) => ({ id: m.id, sender: m.sender, recipients: JSON.parse(m.recipients) as string[], subject: m.subject, text: m.text, createdAt: m.createdAt }));
+export async function findMail(q: ListMailQuery): Promise<{ rows: MailRow[]; total: number }> {
+  const where = q.to ? textContains('MailMessage.recipients', q.to) : {};
+  const [total, rows] = await Promise.all([
+    MailMessageModel.count({ where }),
+    MailMessageModel.findAll({ where, order: [['id', 'DESC']], limit: q.limit, offset: q.offset }),
+  ]);
+  return { total, rows: rows.map((m) => ({ id: m.id, sender: m.sender, recipients: JSON.parse(m.recipients) as string[], subject: m.subject, text: m.text, createdAt: m.createdAt })) };
 }

@@ -1,5 +1,6 @@
 // Captured mail for admins.
 import { listMailQuerySchema } from '../../shared/api/admin';
+import { sendPage } from '../middleware/page';
 import { route } from '../middleware/route';
 import { presentMail } from './presenter';
 import { capturedMail } from './service';
@@ -8,6 +9,9 @@ import { capturedMail } from './service';
 export const mailRoutes = [
   route({
     method: 'get', path: '/admin/mail', access: ['admin'], schema: { query: listMailQuerySchema },
-    handler: async ({ input, res }) => { res.json((await capturedMail(input.query)).map(presentMail)); },
+    handler: async ({ input, res }) => {
+      const { rows, total } = await capturedMail(input.query);
+      sendPage(res, rows.map(presentMail), total);
+    },
   }),
 ];

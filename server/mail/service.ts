@@ -6,6 +6,7 @@ import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import type { Config } from '../config';
 import type { Database } from '../db/connection';
+import type { ListMailQuery } from '../../shared/api/admin';
 import { findMail, insertMail, type MailRow } from './repository';
 
 /** Sends notifications. */
@@ -78,9 +79,9 @@ export async function createMailer(config: Config, db: Database, log: (m: string
 
 /**
  * Captured messages.
- * @param q - optional recipient filter and limit.
- * @returns rows, newest first.
+ * @param q - optional recipient filter and page.
+ * @returns one page of rows, newest first, and how many match.
  */
-export function capturedMail(q: { to?: string; limit: number }): Promise<MailRow[]> {
+export function capturedMail(q: ListMailQuery): Promise<{ rows: MailRow[]; total: number }> {
   return findMail(q);
 }

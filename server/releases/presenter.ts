@@ -1,7 +1,7 @@
 // Serialises releases.
 import type { ReleaseSummary } from '../../shared/api/designs';
 import type { Release } from '../../shared/api/releases';
-import type { UserRow } from '../users/repository';
+import type { PersonRow } from '../users/repository';
 import { presentPerson } from '../users/presenter';
 import type { ReleaseRow } from './repository';
 
@@ -15,7 +15,7 @@ import type { ReleaseRow } from './repository';
  * @param ctx.withdrawnBy - who withdrew, if anyone.
  * @returns the DTO.
  */
-export function presentRelease(row: ReleaseRow, ctx: { designName: string; revisionNumber: number; releasedBy: UserRow | null; withdrawnBy: UserRow | null }): Release {
+export function presentRelease(row: ReleaseRow, ctx: { designName: string; revisionNumber: number; releasedBy: PersonRow | null; withdrawnBy: PersonRow | null }): Release {
   return {
     id: row.id, designId: row.designId, designName: ctx.designName, revisionId: row.revisionId, revisionNumber: ctx.revisionNumber,
     version: row.version, fileName: row.fileName, sizeBytes: row.sizeBytes, sha256: row.sha256, releasedBy: presentPerson(ctx.releasedBy),

@@ -2,7 +2,8 @@
 import { idParamsSchema } from '../../shared/api/common';
 import { createReleaseRequestSchema, listReleasesQuerySchema, withdrawReleaseRequestSchema } from '../../shared/api/releases';
 import { ALL_ROLES, route } from '../middleware/route';
-import { releaseView } from '../revisions/view';
+import { sendPage } from '../middleware/page';
+import { releaseView, releaseViews } from '../revisions/view';
 import { downloadRelease, getRelease, listReleases, release, releaseReport, withdrawRelease } from './service';
 
 /** Routes of /api/revisions/:id/release and /api/releases. */
@@ -13,7 +14,10 @@ export const releaseRoutes = [
   }),
   route({
     method: 'get', path: '/releases', access: ALL_ROLES, tokens: true, schema: { query: listReleasesQuerySchema },
-    handler: async ({ input, res }) => { res.json(await Promise.all((await listReleases(input.query)).map(releaseView))); },
+    handler: async ({ input, res }) => {
+      const { rows, total } = await listReleases(input.query);
+      sendPage(res, await releaseViews(rows), total);
+    },
   }),
   route({
     method: 'get', path: '/releases/:id', access: ALL_ROLES, tokens: true, schema: { params: idParamsSchema },

@@ -5,14 +5,14 @@ import { AppError, conflict, forbidden, notFound } from '../errors';
 import { record } from '../audit/service';
 import type { Actor, AppContext, UserActor } from '../middleware/context';
 import { notifyRole } from '../mail/notify';
-import { findDesign, findDesignByName } from '../designs/repository';
+import { designIdByName, findDesign, lockDesign } from '../designs/repository';
 import { requireValidDesign } from '../designs/designFile';
 import { analyzeDesign } from '../../shared/control';
-import { findRevision, setRevisionStatus } from '../revisions/repository';
+import { findRevision, lockRevision, setRevisionStatus } from '../revisions/repository';
 import { exportInputOf } from '../revisions/service';
 import { buildBundle, TOOL_VERSION } from './exporter';
 import { reportOfBundle } from './report';
-import { findRelease, findReleaseByVersion, insertRelease, listReleaseRows, markWithdrawn, releaseBytes, type ReleaseRow } from './repository';
+import { findRelease, findReleaseByVersion, insertRelease, listReleaseRows, lockRelease, markWithdrawn, releaseBytes, type ReleaseRow } from './repository';
 
 /**
  * SHA-256 hex of bytes.
@@ -22,7 +22,10 @@ import { findRelease, findReleaseByVersion, insertRelease, listReleaseRows, mark
 export const sha256Hex = (bytes: Buffer): string => createHash('sha256').update(bytes).digest('hex');
 
 /**
- * Releases a revision.
+ * Releases a revision. The bundle is built before the transaction; inside it the design row and then
+ * the revision row are locked (the order every writer of both keeps), the rules are checked again on
+ * what is committed, and the version is taken: of concurrent requests for one version, one wins and
+ * the others get 409, in one process or several.
  * @param app - services.
  * @param actor - engineer or admin.
  * @param revisionId - revision id.
@@ -43,7 +46,8 @@ export async function release(app: AppContext, actor: UserActor, revisionId: num
   const built = await buildBundle(exportInputOf(revision, version));
   const sha256 = sha256Hex(built.zip);
   const row = await app.db.write(async (t) => {
-    const again = await findRevision(revisionId, t);
+    await lockDesign(revision.designId, t);
+    const again = await lockRevision(revisionId, t);
     if (!again) throw notFound(`revision ${revisionId}`);
     refuse(again);
     if (await findReleaseByVersion(revision.designId, version, t)) throw duplicate();
@@ -60,18 +64,17 @@ export async function release(app: AppContext, actor: UserActor, revisionId: num
 
 /**
  * Lists releases.
- * @param q - design name, design id or version filters.
- * @returns rows, newest first.
+ * @param q - design name, design id, version and text filters; page.
+ * @returns one page of rows, newest first, and how many match.
  */
-export async function listReleases(q: ListReleasesQuery): Promise<ReleaseRow[]> {
+export async function listReleases(q: ListReleasesQuery): Promise<{ rows: ReleaseRow[]; total: number }> {
   let designId = q.designId;
   if (q.design !== undefined) {
-    const design = await findDesignByName(q.design);
-    if (!design) return [];
-    if (designId !== undefined && designId !== design.id) return [];
-    designId = design.id;
+    const named = await designIdByName(q.design);
+    if (named === null || (designId !== undefined && designId !== named)) return { rows: [], total: 0 };
+    designId = named;
   }
-  return listReleaseRows({ designId, version: q.version });
+  return listReleaseRows({ designId, version: q.version, q: q.q }, q);
 }
 
 /**
@@ -124,7 +127,7 @@ export async function releaseReport(id: number): Promise<string> {
  */
 export async function withdrawRelease(app: AppContext, actor: UserActor, id: number, reason: string): Promise<ReleaseRow> {
   return app.db.write(async (t) => {
-    const row = await findRelease(id, t);
+    const row = await lockRelease(id, t);
     if (!row) throw notFound(`release ${id}`);
     if (row.withdrawnAt !== null) throw conflict('already-withdrawn', `release ${row.version} was already withdrawn`);
     await markWithdrawn(id, actor.id, reason, t);

@@ -33,3 +33,17 @@ export async function insertReview(data: Omit<ReviewRow, 'id' | 'createdAt'>, tr
 export async function reviewsOf(revisionId: number): Promise<ReviewRow[]> {
   return (await ReviewModel.findAll({ where: { revisionId }, order: [['id', 'ASC']] })).map(plain);
 }
+
+/**
+ * Reviews of several revisions in one query, oldest first.
+ * @param revisionIds - revision ids (one page of rows' worth).
+ * @returns the rows by revision id (revisions without reviews are absent).
+ */
+export async function reviewsOfAll(revisionIds: readonly number[]): Promise<Map<number, ReviewRow[]>> {
+  const out = new Map<number, ReviewRow[]>();
+  if (revisionIds.length === 0) return out;
+  for (const m of await ReviewModel.findAll({ where: { revisionId: [...new Set(revisionIds)] }, order: [['id', 'ASC']] })) {
+    out.set(m.revisionId, [...(out.get(m.revisionId) ?? []), plain(m)]);
+  }
+  return out;
+}

@@ -4,7 +4,7 @@ import { conflict, forbidden, notFound } from '../errors';
 import { record } from '../audit/service';
 import type { AppContext, UserActor } from '../middleware/context';
 import { notifyUser } from '../mail/notify';
-import { findRevision, setRevisionStatus } from '../revisions/repository';
+import { lockRevision, setRevisionStatus } from '../revisions/repository';
 import { insertReview, type ReviewRow } from './repository';
 
 /**
@@ -17,7 +17,7 @@ import { insertReview, type ReviewRow } from './repository';
  */
 export async function decide(app: AppContext, actor: UserActor, revisionId: number, input: CreateReviewRequest): Promise<{ review: ReviewRow; authorId: number; designName: string; number: number }> {
   const out = await app.db.write(async (t) => {
-    const revision = await findRevision(revisionId, t);
+    const revision = await lockRevision(revisionId, t);
     if (!revision) throw notFound(`revision ${revisionId}`);
     if (revision.authorId === actor.id) throw forbidden('four-eyes rule: nobody reviews their own revision');
     if (revision.status !== 'in-review') throw conflict('not-in-review', `revision ${revision.number} is ${revision.status}, not in review`, { status: revision.status });

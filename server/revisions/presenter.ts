@@ -2,9 +2,9 @@
 import type { RevisionSummary } from '../../shared/api/designs';
 import type { Review, RevisionDetail } from '../../shared/api/revisions';
 import type { ReviewRow } from '../reviews/repository';
-import type { UserRow } from '../users/repository';
+import type { PersonRow } from '../users/repository';
 import { presentPerson } from '../users/presenter';
-import type { RevisionRow } from './repository';
+import type { RevisionRow, RevisionSummaryRow } from './repository';
 
 /**
  * Short form.
@@ -12,7 +12,7 @@ import type { RevisionRow } from './repository';
  * @param author - its author.
  * @returns the DTO.
  */
-export function presentRevisionSummary(row: RevisionRow, author: UserRow | null): RevisionSummary {
+export function presentRevisionSummary(row: RevisionSummaryRow, author: PersonRow | null): RevisionSummary {
   return {
     id: row.id, designId: row.designId, number: row.number, status: row.status, summary: row.summary,
     createdAt: row.createdAt.toISOString(), author: presentPerson(author), errorCount: row.errorCount, warningCount: row.warningCount,
@@ -25,7 +25,7 @@ export function presentRevisionSummary(row: RevisionRow, author: UserRow | null)
  * @param reviewer - who decided.
  * @returns the DTO.
  */
-export function presentReview(row: ReviewRow, reviewer: UserRow | null): Review {
+export function presentReview(row: ReviewRow, reviewer: PersonRow | null): Review {
   return { id: row.id, revisionId: row.revisionId, reviewer: presentPerson(reviewer), decision: row.decision, comment: row.comment, createdAt: row.createdAt.toISOString() };
 }
 
@@ -37,6 +37,6 @@ export function presentReview(row: ReviewRow, reviewer: UserRow | null): Review 
  * @param release - its release, if any.
  * @returns the DTO.
  */
-export function presentRevisionDetail(row: RevisionRow, author: UserRow | null, reviews: Review[], release: { id: number; version: string } | null): RevisionDetail {
+export function presentRevisionDetail(row: RevisionRow, author: PersonRow | null, reviews: Review[], release: { id: number; version: string } | null): RevisionDetail {
   return { ...presentRevisionSummary(row, author), designName: row.design.name, design: row.design, analysis: row.analysis, reviews, release };
 }

@@ -1,7 +1,10 @@
-// Revision storage; returns plain objects with design and analysis parsed.
-import { Op, type Transaction } from 'sequelize';
+// Revision storage; returns plain objects. Full rows carry the frozen design and analysis parsed;
+// list rows (`RevisionSummaryRow`) never read those two texts.
+import { literal, Op, type Transaction } from 'sequelize';
 import type { RevisionStatus } from '../../shared/api/designs';
+import type { PageRequest } from '../../shared/api/paging';
 import type { AnalysisResult, DesignInput } from '../../shared/control';
+import { lockFor } from '../db/connection';
 import { RevisionModel } from './model';
 
 /** A revision row. */
@@ -19,10 +22,17 @@ export interface RevisionRow {
   createdAt: Date;
 }
 
-const plain = (m: RevisionModel): RevisionRow => ({
+/** A revision as lists show it: no frozen design, no analysis. */
+export type RevisionSummaryRow = Omit<RevisionRow, 'design' | 'analysis'>;
+
+const SUMMARY_ATTRIBUTES = ['id', 'designId', 'number', 'authorId', 'summary', 'status', 'errorCount', 'warningCount', 'createdAt'] as const;
+
+const summary = (m: RevisionModel): RevisionSummaryRow => ({
   id: m.id, designId: m.designId, number: m.number, authorId: m.authorId, summary: m.summary, status: m.status,
-  design: JSON.parse(m.design) as DesignInput, analysis: JSON.parse(m.analysis) as AnalysisResult,
   errorCount: m.errorCount, warningCount: m.warningCount, createdAt: m.createdAt,
+});
+const plain = (m: RevisionModel): RevisionRow => ({
+  ...summary(m), design: JSON.parse(m.design) as DesignInput, analysis: JSON.parse(m.analysis) as AnalysisResult,
 });
 
 /**
@@ -37,22 +47,55 @@ export async function findRevision(id: number, transaction?: Transaction): Promi
 }
 
 /**
- * Lists the revisions of a design, newest first.
- * @param designId - design id.
- * @returns the rows.
+ * Reads a revision and locks its row until the transaction ends (a decision on its status).
+ * @param id - revision id.
+ * @param transaction - the write transaction.
+ * @returns the row or null.
  */
-export async function listRevisionRows(designId: number): Promise<RevisionRow[]> {
-  return (await RevisionModel.findAll({ where: { designId }, order: [['number', 'DESC']] })).map(plain);
+export async function lockRevision(id: number, transaction: Transaction): Promise<RevisionRow | null> {
+  const m = await RevisionModel.findByPk(id, lockFor(transaction));
+  return m ? plain(m) : null;
 }
 
 /**
- * The newest revision of a design.
+ * One page of the revisions of a design, newest first (index revisions_design_number), and how many there are.
  * @param designId - design id.
- * @returns the row or null.
+ * @param page - limit and offset.
+ * @returns the rows of the page and the total.
  */
-export async function latestRevision(designId: number): Promise<RevisionRow | null> {
-  const m = await RevisionModel.findOne({ where: { designId }, order: [['number', 'DESC']] });
-  return m ? plain(m) : null;
+export async function listRevisionSummaries(designId: number, page: PageRequest): Promise<{ rows: RevisionSummaryRow[]; total: number }> {
+  const [total, rows] = await Promise.all([
+    RevisionModel.count({ where: { designId } }),
+    RevisionModel.findAll({ where: { designId }, attributes: [...SUMMARY_ATTRIBUTES], order: [['number', 'DESC']], limit: page.limit, offset: page.offset }),
+  ]);
+  return { rows: rows.map(summary), total };
+}
+
+/**
+ * The newest revision of each design, in one query.
+ * @param designIds - design ids (one page of rows' worth).
+ * @returns the revisions found, by design id.
+ */
+export async function latestRevisionSummaries(designIds: readonly number[]): Promise<Map<number, RevisionSummaryRow>> {
+  const unique = [...new Set(designIds)];
+  if (unique.length === 0) return new Map();
+  const rows = await RevisionModel.findAll({
+    where: { designId: unique, number: { [Op.eq]: literal('(SELECT MAX(r2.number) FROM revisions r2 WHERE r2.design_id = "Revision"."design_id")') } },
+    attributes: [...SUMMARY_ATTRIBUTES],
+  });
+  return new Map(rows.map((m) => [m.designId, summary(m)]));
+}
+
+/**
+ * Revision numbers by revision id, in one query.
+ * @param ids - revision ids (one page of rows' worth).
+ * @returns the numbers found, by id.
+ */
+export async function revisionNumbers(ids: readonly number[]): Promise<Map<number, number>> {
+  const unique = [...new Set(ids)];
+  if (unique.length === 0) return new Map();
+  const rows = await RevisionModel.findAll({ where: { id: unique }, attributes: ['id', 'number'] });
+  return new Map(rows.map((m) => [m.id, m.number]));
 }
 
 /**
@@ -88,13 +131,14 @@ export async function setRevisionStatus(id: number, status: RevisionStatus, tran
 }
 
 /**
- * Open (in review or approved, not released) revisions of a design older than `number`.
+ * Open (in review or approved, not released) revisions of a design older than `number`, locked until the transaction ends.
  * @param designId - design id.
  * @param number - the new revision number.
  * @param transaction - the write transaction.
  * @returns ids and numbers.
  */
 export async function openRevisionsBefore(designId: number, number: number, transaction: Transaction): Promise<{ id: number; number: number }[]> {
-  const rows = await RevisionModel.findAll({ where: { designId, number: { [Op.lt]: number }, status: ['in-review', 'approved'] }, attributes: ['id', 'number'], transaction });
+  // Locked, so a decision committed meanwhile in another process is seen before superseding.
+  const rows = await RevisionModel.findAll({ where: { designId, number: { [Op.lt]: number }, status: ['in-review', 'approved'] }, attributes: ['id', 'number'], ...lockFor(transaction) });
   return rows.map((r) => ({ id: r.id, number: r.number }));
 }

@@ -1,9 +1,10 @@
 // Revision routes (CONTRACT section 6).
 import { idParamsSchema } from '../../shared/api/common';
-import { diffParamsSchema, submitRevisionRequestSchema } from '../../shared/api/revisions';
+import { diffParamsSchema, listRevisionsQuerySchema, submitRevisionRequestSchema } from '../../shared/api/revisions';
 import { route } from '../middleware/route';
 import { diffRevisions, getRevision, revisionHeader, revisionsOfDesign, submitRevision } from './service';
-import { revisionDetailView, revisionListItemView } from './view';
+import { sendPage } from '../middleware/page';
+import { revisionDetailView, revisionListItemViews } from './view';
 
 const readers: ['engineer', 'reviewer', 'admin'] = ['engineer', 'reviewer', 'admin'];
 
@@ -16,9 +17,10 @@ export const revisionRoutes = [
     },
   }),
   route({
-    method: 'get', path: '/designs/:id/revisions', access: readers, schema: { params: idParamsSchema },
+    method: 'get', path: '/designs/:id/revisions', access: readers, schema: { params: idParamsSchema, query: listRevisionsQuerySchema },
     handler: async ({ input, res }) => {
-      res.json(await Promise.all((await revisionsOfDesign(input.params.id)).map(revisionListItemView)));
+      const { rows, total } = await revisionsOfDesign(input.params.id, input.query);
+      sendPage(res, await revisionListItemViews(rows), total);
     },
   }),
   route({

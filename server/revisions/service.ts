@@ -1,16 +1,18 @@
 // Revisions: freeze the working copy with its server-computed analysis; read; compare.
 import { createTwoFilesPatch } from 'diff';
 import { analyzeDesign, type AnalysisResult } from '../../shared/control';
-import type { RevisionDiff } from '../../shared/api/revisions';
+import type { ListRevisionsQuery, RevisionDiff } from '../../shared/api/revisions';
 import { AppError, notFound } from '../errors';
 import { record } from '../audit/service';
 import type { AppContext, UserActor } from '../middleware/context';
 import { notifyRole } from '../mail/notify';
-import { findDesign } from '../designs/repository';
+import { designExists, findDesign, lockDesign } from '../designs/repository';
 import { requireValidDesign } from '../designs/designFile';
 import { renderHeader, TOOL_VERSION, type ExportInput } from '../releases/exporter';
 import { compareRevisions } from './diff';
-import { findRevision, insertRevision, listRevisionRows, maxRevisionNumber, openRevisionsBefore, setRevisionStatus, type RevisionRow } from './repository';
+import {
+  findRevision, insertRevision, listRevisionSummaries, maxRevisionNumber, openRevisionsBefore, setRevisionStatus, type RevisionRow, type RevisionSummaryRow,
+} from './repository';
 
 /** Analysis options for frozen revisions: numbers only, no plot data (the contract's server analysis). */
 export const REVISION_ANALYSIS_OPTIONS = { sweepPoints: 0, responseSamples: 0 } as const;
@@ -30,6 +32,8 @@ function analyseForRevision(design: Parameters<typeof analyzeDesign>[0]): Analys
 
 /**
  * Freezes the saved working copy as the next revision, in review; older open revisions are superseded.
+ * The copy is analysed before the transaction; inside it the design row is locked, so the number is
+ * the next one even with submissions arriving at once through several server processes.
  * @param app - services.
  * @param actor - the engineer.
  * @param designId - design id.
@@ -37,11 +41,12 @@ function analyseForRevision(design: Parameters<typeof analyzeDesign>[0]): Analys
  * @returns the new revision.
  */
 export async function submitRevision(app: AppContext, actor: UserActor, designId: number, summary: string): Promise<RevisionRow> {
+  const design = await findDesign(designId);
+  if (!design) throw notFound(`design ${designId}`);
+  const frozen = await requireValidDesign(design.design, 'design');
+  const analysis = analyseForRevision(frozen);
   const revision = await app.db.write(async (t) => {
-    const design = await findDesign(designId, t);
-    if (!design) throw notFound(`design ${designId}`);
-    const frozen = await requireValidDesign(design.design, "design");
-    const analysis = analyseForRevision(frozen);
+    if (!(await lockDesign(designId, t))) throw notFound(`design ${designId}`);
     const number = (await maxRevisionNumber(designId, t)) + 1;
     const row = await insertRevision({
       designId, number, authorId: actor.id, summary, status: 'in-review', design: frozen, analysis,
@@ -75,11 +80,12 @@ export async function getRevision(id: number): Promise<RevisionRow> {
 /**
  * Lists the revisions of a design, newest first.
  * @param designId - design id.
- * @returns the rows.
+ * @param page - limit and offset.
+ * @returns one page of rows (no design, no analysis) and how many there are.
  */
-export async function revisionsOfDesign(designId: number): Promise<RevisionRow[]> {
-  if (!(await findDesign(designId))) throw notFound(`design ${designId}`);
-  return listRevisionRows(designId);
+export async function revisionsOfDesign(designId: number, page: ListRevisionsQuery): Promise<{ rows: RevisionSummaryRow[]; total: number }> {
+  if (!(await designExists(designId))) throw notFound(`design ${designId}`);
+  return listRevisionSummaries(designId, page);
 }
 
 /**

@@ -1,12 +1,13 @@
-// Assembles presented revisions and releases (the related rows each presenter needs).
+// Assembles presented revisions and releases (the related rows each presenter needs); the list
+// views load the related rows of a whole page in a fixed number of queries.
 import type { RevisionDetail, RevisionListItem } from '../../shared/api/revisions';
 import type { Release } from '../../shared/api/releases';
-import { findUser } from '../users/repository';
-import { reviewsOf } from '../reviews/repository';
-import { listReleaseRows, type ReleaseRow } from '../releases/repository';
+import { peopleByIds } from '../users/repository';
+import { reviewsOf, reviewsOfAll } from '../reviews/repository';
+import { findReleaseOfRevision, type ReleaseRow } from '../releases/repository';
 import { presentRelease } from '../releases/presenter';
-import { findDesign } from '../designs/repository';
-import { findRevision, type RevisionRow } from './repository';
+import { designNames } from '../designs/repository';
+import { revisionNumbers, type RevisionRow, type RevisionSummaryRow } from './repository';
 import { presentReview, presentRevisionDetail, presentRevisionSummary } from './presenter';
 
 /**
@@ -15,27 +16,44 @@ import { presentReview, presentRevisionDetail, presentRevisionSummary } from './
  * @returns the DTO.
  */
 export async function revisionDetailView(row: RevisionRow): Promise<RevisionDetail> {
-  const reviews = await reviewViews(row.id);
-  const release = (await listReleaseRows({ designId: row.designId })).find((r) => r.revisionId === row.id);
-  return presentRevisionDetail(row, await findUser(row.authorId), reviews, release ? { id: release.id, version: release.version } : null);
+  const reviews = await reviewsOf(row.id);
+  const [people, release] = await Promise.all([peopleByIds([row.authorId, ...reviews.map((r) => r.reviewerId)]), findReleaseOfRevision(row.id)]);
+  return presentRevisionDetail(row, people.get(row.authorId) ?? null, reviews.map((r) => presentReview(r, people.get(r.reviewerId) ?? null)),
+    release ? { id: release.id, version: release.version } : null);
 }
 
 /**
- * Presented reviews of a revision, oldest first.
- * @param revisionId - revision id.
- * @returns the DTOs.
+ * Revisions as the history lists them, one page of rows: short form with its reviews (the author reads
+ * the comments). Two queries (the reviews, the people) whatever the number of rows.
+ * @param rows - the revisions.
+ * @returns the DTOs, in the order of `rows`.
  */
-async function reviewViews(revisionId: number) {
-  return Promise.all((await reviewsOf(revisionId)).map(async (r) => presentReview(r, await findUser(r.reviewerId))));
+export async function revisionListItemViews(rows: readonly RevisionSummaryRow[]): Promise<RevisionListItem[]> {
+  const reviews = await reviewsOfAll(rows.map((r) => r.id));
+  const people = await peopleByIds([...rows.map((r) => r.authorId), ...[...reviews.values()].flat().map((r) => r.reviewerId)]);
+  return rows.map((r) => ({
+    ...presentRevisionSummary(r, people.get(r.authorId) ?? null),
+    reviews: (reviews.get(r.id) ?? []).map((v) => presentReview(v, people.get(v.reviewerId) ?? null)),
+  }));
 }
 
 /**
- * A revision as the history lists it: short form with its reviews (the author reads the comments).
- * @param row - the revision.
- * @returns the DTO.
+ * Release views of one page of rows: three queries (design names, revision numbers, people) whatever the number of rows.
+ * @param rows - the releases.
+ * @returns the DTOs, in the order of `rows`.
  */
-export async function revisionListItemView(row: RevisionRow): Promise<RevisionListItem> {
-  return { ...presentRevisionSummary(row, await findUser(row.authorId)), reviews: await reviewViews(row.id) };
+export async function releaseViews(rows: readonly ReleaseRow[]): Promise<Release[]> {
+  const [names, numbers, people] = await Promise.all([
+    designNames(rows.map((r) => r.designId)),
+    revisionNumbers(rows.map((r) => r.revisionId)),
+    peopleByIds(rows.flatMap((r) => (r.withdrawnById === null ? [r.releasedById] : [r.releasedById, r.withdrawnById]))),
+  ]);
+  return rows.map((row) => presentRelease(row, {
+    designName: names.get(row.designId) ?? '',
+    revisionNumber: numbers.get(row.revisionId) ?? 0,
+    releasedBy: people.get(row.releasedById) ?? null,
+    withdrawnBy: row.withdrawnById === null ? null : people.get(row.withdrawnById) ?? null,
+  }));
 }
 
 /**
@@ -44,10 +62,5 @@ export async function revisionListItemView(row: RevisionRow): Promise<RevisionLi
  * @returns the DTO.
  */
 export async function releaseView(row: ReleaseRow): Promise<Release> {
-  return presentRelease(row, {
-    designName: (await findDesign(row.designId))?.name ?? '',
-    revisionNumber: (await findRevision(row.revisionId))?.number ?? 0,
-    releasedBy: await findUser(row.releasedById),
-    withdrawnBy: row.withdrawnById === null ? null : await findUser(row.withdrawnById),
-  });
+  return (await releaseViews([row]))[0];
 }

@@ -1,5 +1,6 @@
 // Account storage; returns plain objects.
 import type { Transaction } from 'sequelize';
+import { lockFor } from '../db/connection';
 import type { Role } from '../../shared/api/common';
 import { UserModel } from './model';
 
@@ -35,6 +36,32 @@ export async function findUserByEmail(email: string): Promise<UserRow | null> {
 export async function findUser(id: number, transaction?: Transaction): Promise<UserRow | null> {
   const m = await UserModel.findByPk(id, { transaction });
   return m ? plain(m) : null;
+}
+
+/**
+ * Reads an account and locks its row until the transaction ends (changes decided on what it read).
+ * @param id - user id.
+ * @param transaction - the write transaction.
+ * @returns the row or null.
+ */
+export async function lockUser(id: number, transaction: Transaction): Promise<UserRow | null> {
+  const m = await UserModel.findByPk(id, lockFor(transaction));
+  return m ? plain(m) : null;
+}
+
+/** A person as lists show them: id, name, e-mail. */
+export type PersonRow = Pick<UserRow, 'id' | 'name' | 'email'>;
+
+/**
+ * People by id, in one query (for the rows of a list page).
+ * @param ids - user ids (repeats allowed; at most one page of rows' worth).
+ * @returns the people found, by id.
+ */
+export async function peopleByIds(ids: readonly number[]): Promise<Map<number, PersonRow>> {
+  const unique = [...new Set(ids)];
+  if (unique.length === 0) return new Map();
+  const rows = await UserModel.findAll({ where: { id: unique }, attributes: ['id', 'name', 'email'] });
+  return new Map(rows.map((m) => [m.id, { id: m.id, name: m.name, email: m.email }]));
 }
 
 /**

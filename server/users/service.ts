@@ -4,7 +4,7 @@ import type { CreateUserRequest, UpdateUserRequest } from '../../shared/api/user
 import { AppError, notFound } from '../errors';
 import { record } from '../audit/service';
 import type { AppContext, UserActor } from '../middleware/context';
-import { findUser, findUserByEmail, insertUser, listUsers, updateUser, type UserRow } from './repository';
+import { findUser, findUserByEmail, insertUser, listUsers, lockUser, updateUser, type UserRow } from './repository';
 
 /** bcrypt cost factor (OWASP Password Storage Cheat Sheet, 2023: at least 10). */
 export const BCRYPT_ROUNDS = 10;
@@ -53,7 +53,7 @@ export async function createUser(app: AppContext, actor: UserActor, input: Creat
  */
 export async function changeUser(app: AppContext, actor: UserActor, id: number, input: UpdateUserRequest): Promise<UserRow> {
   return app.db.write(async (t) => {
-    const before = await findUser(id, t);
+    const before = await lockUser(id, t);
     if (!before) throw notFound(`user ${id}`);
     if (id === actor.id && ((input.role !== undefined && input.role !== 'admin') || input.disabled === true)) {
       throw new AppError('self-lockout', 'admins cannot remove their own admin role or disable themselves', 409);

@@ -1,5 +1,6 @@
 // Admin payloads: captured mail and the audit log (CONTRACT section 6: /api/admin).
 import { z } from 'zod';
+import { pageQueryShape } from './paging';
 
 /** One message the local mail server received. */
 export const mailMessageSchema = z.object({
@@ -13,11 +14,13 @@ export const mailMessageSchema = z.object({
 /** A captured message. */
 export type MailMessage = z.infer<typeof mailMessageSchema>;
 
-/** Query of `GET /api/admin/mail`. */
+/** Query of `GET /api/admin/mail`: optional recipient filter, one page (newest first). */
 export const listMailQuerySchema = z.object({
   to: z.string().max(254).optional(),
-  limit: z.coerce.number().int().min(1).max(500).default(100),
+  ...pageQueryShape('mail'),
 });
+/** A mail-outbox query. */
+export type ListMailQuery = z.infer<typeof listMailQuerySchema>;
 
 /** Audit actions. */
 export const auditActionSchema = z.enum([
@@ -43,7 +46,7 @@ export const auditEventSchema = z.object({
 /** An audit entry. */
 export type AuditEvent = z.infer<typeof auditEventSchema>;
 
-/** Query of `GET /api/admin/audit`: filters by action, actor user, target and time window. */
+/** Query of `GET /api/admin/audit`: filters by action, actor user, target and time window; one page (newest first). */
 export const listAuditQuerySchema = z.object({
   action: auditActionSchema.optional(),
   actorId: z.coerce.number().int().positive().optional(),
@@ -51,7 +54,7 @@ export const listAuditQuerySchema = z.object({
   targetId: z.coerce.number().int().positive().optional(),
   since: z.iso.datetime({ message: 'must be an ISO 8601 time' }).optional(),
   until: z.iso.datetime({ message: 'must be an ISO 8601 time' }).optional(),
-  limit: z.coerce.number().int().min(1).max(1000).default(200),
+  ...pageQueryShape('audit'),
 });
 /** An audit filter. */
 export type ListAuditQuery = z.infer<typeof listAuditQuerySchema>;

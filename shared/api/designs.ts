@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import type { DesignInput } from '../control/types';
 import { personSchema } from './common';
+import { pageQueryShape } from './paging';
 
 /** Revision states: in review, then approved or sent back; released; superseded by a newer submission. */
 export const revisionStatusSchema = z.enum(['in-review', 'approved', 'changes-requested', 'released', 'superseded']);
@@ -65,8 +66,23 @@ export type DesignSummary = z.infer<typeof designSummarySchema>;
 /** `GET /api/designs/:id`: the summary plus the working copy; send `version` back as `baseVersion`. */
 export type DesignDetail = DesignSummary & { design: DesignInput };
 
-/** Query of `GET /api/designs`: optional case-insensitive name filter. */
-export const listDesignsQuerySchema = z.object({ q: z.string().max(200).optional() });
+/** Orders of `GET /api/designs`: by name or by last save, `-` first for descending. */
+export const designSortSchema = z.enum(['name', '-name', 'updatedAt', '-updatedAt']);
+/** An order of the designs list. */
+export type DesignSort = z.infer<typeof designSortSchema>;
+
+/**
+ * Query of `GET /api/designs`: optional case-insensitive name filter, status of the latest revision,
+ * order (default by name), one page.
+ */
+export const listDesignsQuerySchema = z.object({
+  q: z.string().max(200).optional(),
+  status: revisionStatusSchema.optional(),
+  sort: designSortSchema.default('name'),
+  ...pageQueryShape('designs'),
+});
+/** A designs-list query. */
+export type ListDesignsQuery = z.infer<typeof listDesignsQuerySchema>;
 
 /** Body of `409` on a stale save: the error plus the version now stored. */
 export type StaleSaveDetails = { currentVersion: number };

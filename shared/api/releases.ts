@@ -1,6 +1,7 @@
 // Release and access-token payloads (CONTRACT section 6: /api/releases, /api/tokens).
 import { z } from 'zod';
 import { personSchema, semverSchema } from './common';
+import { pageQueryShape } from './paging';
 
 /** Body of `POST /api/revisions/:id/release`. */
 export const createReleaseRequestSchema = z.object({ version: semverSchema });
@@ -12,11 +13,16 @@ export const withdrawReleaseRequestSchema = z.object({ reason: z.string().trim()
 /** A withdrawal. */
 export type WithdrawReleaseRequest = z.infer<typeof withdrawReleaseRequestSchema>;
 
-/** Query of `GET /api/releases`: optional filter by design name (exact) or design id. */
+/**
+ * Query of `GET /api/releases`: optional filters by design name (exact), design id, version (exact)
+ * and `q` (case-insensitive part of the design name or the version); one page, newest first.
+ */
 export const listReleasesQuerySchema = z.object({
   design: z.string().max(200).optional(),
   designId: z.coerce.number().int().positive().optional(),
   version: semverSchema.optional(),
+  q: z.string().max(200).optional(),
+  ...pageQueryShape('releases'),
 });
 /** A release filter. */
 export type ListReleasesQuery = z.infer<typeof listReleasesQuerySchema>;

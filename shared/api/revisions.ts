@@ -2,7 +2,13 @@
 import { z } from 'zod';
 import type { AnalysisResult, DesignInput } from '../control/types';
 import { idParamSchema, personSchema } from './common';
+import { pageQueryShape } from './paging';
 import type { RevisionSummary } from './designs';
+
+/** Query of `GET /api/designs/:id/revisions`: one page, newest first. */
+export const listRevisionsQuerySchema = z.object({ ...pageQueryShape('revisions') });
+/** A revisions-list query. */
+export type ListRevisionsQuery = z.infer<typeof listRevisionsQuerySchema>;
 
 /** Body of `POST /api/designs/:id/revisions`. */
 export const submitRevisionRequestSchema = z.object({

@@ -13,10 +13,12 @@ import type { Booted } from '../../server/boot';
 import type { Role } from '../../shared/api/common';
 import { readZip } from '../export/helpers/unpack';
 import { buildDesign } from './factories';
-import { allTokens, bearer, startApp, tempDir } from './helpers';
+import { allTokens, bearer, onPostgres, startApp, tempDir } from './helpers';
 
 const run = promisify(execFile);
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+/** A one-byte blob literal in this database's SQL. */
+const oneZeroByte = onPostgres ? "'\\x00'::bytea" : "x'00'";
 const binary = (res: request.Response, cb: (err: Error | null, body: Buffer) => void) => {
   const chunks: Buffer[] = [];
   res.on('data', (c: Buffer) => chunks.push(c));
@@ -156,7 +158,7 @@ describe.sequential('team walk', () => {
     expect(sha256(a.body)).toBe(s.sha);
     expect(a.headers['x-content-sha256']).toBe(s.sha);
     const refusal = (sql: string) => booted.ctx.db.sequelize.query(sql).then(() => 'accepted', (e: { original?: Error; message: string }) => (e.original ?? e).message);
-    expect(await refusal(`UPDATE releases SET bundle = x'00' WHERE id = ${s.releaseId}`)).toContain('released data never changes');
+    expect(await refusal(`UPDATE releases SET bundle = ${oneZeroByte} WHERE id = ${s.releaseId}`)).toContain('released data never changes');
     expect(await refusal(`DELETE FROM releases WHERE id = ${s.releaseId}`)).toContain('released data never changes');
     expect(await refusal(`UPDATE revisions SET analysis = '{}' WHERE id = ${s.rev1}`)).toContain('released data never changes');
     const again = await api().get(`/api/releases/${s.releaseId}/bundle`).set('Authorization', bearer(t.tester)).buffer(true).parse(binary);
