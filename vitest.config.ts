@@ -6,7 +6,7 @@ import { quasar, transformAssetUrls } from '@quasar/vite-plugin';
 // Projects: the pure core, the API on a real SQLite file, the same API suite on PostgreSQL
 // (`server-pg`, only when TEST_DATABASE_URL names a server), the exported C bundle compiled with
 // the system compiler, and client components in happy-dom.
-const serverSuite = { include: ['tests/server/**/*.test.ts'], environment: 'node', pool: 'forks', testTimeout: 30000, hookTimeout: 60000 } as const;
+const serverSuite = { include: ['tests/server/**/*.test.ts'], environment: 'node', pool: 'forks' as const, testTimeout: 30000, hookTimeout: 60000 };
 const postgresUrl = process.env.TEST_DATABASE_URL;
 const projectArgs = process.argv.flatMap((a, i, all) => (a === '--project' ? [all[i + 1]] : a.startsWith('--project=') ? [a.slice(10)] : []));
 if (!postgresUrl && (projectArgs.length === 0 || projectArgs.includes('server-pg'))) {

@@ -1,4 +1,5 @@
 // Bearer authentication: a JWT from sign-in (passport-jwt) or a read-only access token.
+import { createSecretKey } from 'node:crypto';
 import type { Request, Response } from 'express';
 import passport from 'passport';
 import { ExtractJwt, Strategy as JwtStrategy } from 'passport-jwt';
@@ -22,7 +23,8 @@ export function createAuthenticator(app: AppContext): Authenticator {
   const instance = new passport.Passport();
   instance.use(
     new JwtStrategy(
-      { jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(), secretOrKey: app.config.jwtSecret, issuer: JWT_ISSUER, algorithms: ['HS256'] },
+      // A key object, made once: given the text, jsonwebtoken would try it as a public key and fail on every request.
+      { jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(), secretOrKey: createSecretKey(Buffer.from(app.config.jwtSecret, 'utf8')) as unknown as string, issuer: JWT_ISSUER, algorithms: ['HS256'] },
       (payload: { sub?: unknown }, done: (err: unknown, user?: UserActor | false) => void) => {
         const id = Number(payload.sub);
         if (!Number.isInteger(id)) return done(null, false);

@@ -1,8 +1,9 @@
 // Release storage; returns plain objects. Bytes are read only by `releaseBytes`.
-import { literal, Op, type Transaction, type WhereOptions } from 'sequelize';
+import { literal, Op, QueryTypes, type Transaction } from 'sequelize';
 import type { PageRequest } from '../../shared/api/paging';
 import { lockFor } from '../db/connection';
-import { containsPattern, textContains } from '../db/filters';
+import { containsPattern } from '../db/filters';
+import type { PersonRow } from '../users/repository';
 import { ReleaseModel } from './model';
 
 /** A release row without its bytes. */
@@ -35,27 +36,71 @@ export interface ReleaseFilter {
   q?: string;
 }
 
+/** A release as the list shows it: the row with the design name, revision number and people it names. */
+export interface ReleaseListRow extends ReleaseRow {
+  designName: string;
+  revisionNumber: number;
+  releasedBy: PersonRow | null;
+  withdrawnBy: PersonRow | null;
+}
+
+// The list page in one statement: the release columns (never `bundle`) joined to the names they refer to.
+// `{releases}` is the table, on SQLite through its covering index (migration list-indexes: reading the
+// columns stored after the bundle would walk the bundle's pages; the planner would scan the table).
+const LIST_SELECT = `SELECT r.id, r.design_id AS "designId", d.name AS "designName", r.revision_id AS "revisionId",
+  v.number AS "revisionNumber", r.version, r.file_name AS "fileName", r.sha256, r.size_bytes AS "sizeBytes",
+  r.released_by_id AS "releasedById", u.name AS "releasedByName", u.email AS "releasedByEmail", r.created_at AS "createdAt",
+  r.withdrawn_at AS "withdrawnAt", r.withdrawn_reason AS "withdrawnReason", r.withdrawn_by_id AS "withdrawnById",
+  w.name AS "withdrawnByName", w.email AS "withdrawnByEmail"
+FROM {releases} JOIN designs d ON d.id = r.design_id JOIN revisions v ON v.id = r.revision_id
+LEFT JOIN users u ON u.id = r.released_by_id LEFT JOIN users w ON w.id = r.withdrawn_by_id`;
+
+/** SQLite hands dates of raw queries back as text (`2026-12-02 14:00:00.123 +00:00`), PostgreSQL as Date. */
+const toDate = (v: unknown): Date => (v instanceof Date ? v : new Date(String(v)));
+const person = (id: unknown, name: unknown, email: unknown): PersonRow | null =>
+  (name === null || name === undefined ? null : { id: Number(id), name: String(name), email: String(email) });
+
 /**
- * One page of releases (never their bytes), newest first, and how many match.
+ * One page of releases with the names they refer to (never their bytes), newest first, and how many
+ * match: two statements (the page, the count) whatever the page size.
  * @param filter - design, version and text filters.
  * @param page - limit and offset.
  * @returns the rows of the page and the total.
  */
-export async function listReleaseRows(filter: ReleaseFilter, page: PageRequest): Promise<{ rows: ReleaseRow[]; total: number }> {
-  const conditions: WhereOptions[] = [];
-  if (filter.designId !== undefined) conditions.push({ designId: filter.designId });
-  if (filter.version !== undefined) conditions.push({ version: filter.version });
-  if (filter.q) {
-    const pattern = ReleaseModel.sequelize!.escape(containsPattern(filter.q));
-    const designIds = literal(`(SELECT d.id FROM designs d WHERE lower(d.name) LIKE ${pattern})`);
-    conditions.push({ [Op.or]: [textContains('Release.version', filter.q), { designId: { [Op.in]: designIds } }] });
+export async function listReleaseRows(filter: ReleaseFilter, page: PageRequest): Promise<{ rows: ReleaseListRow[]; total: number }> {
+  const sequelize = ReleaseModel.sequelize!;
+  const where: string[] = [];
+  const replacements: Record<string, unknown> = { limit: page.limit, offset: page.offset };
+  if (filter.designId !== undefined) {
+    where.push('r.design_id = :designId');
+    replacements.designId = filter.designId;
   }
-  const where: WhereOptions = conditions.length > 0 ? { [Op.and]: conditions } : {};
-  const [total, rows] = await Promise.all([
-    ReleaseModel.count({ where }),
-    ReleaseModel.findAll({ where, attributes: [...META], order: [['id', 'DESC']], limit: page.limit, offset: page.offset }),
+  if (filter.version !== undefined) {
+    where.push('r.version = :version');
+    replacements.version = filter.version;
+  }
+  if (filter.q) {
+    where.push('(lower(d.name) LIKE :pattern OR lower(r.version) LIKE :pattern)');
+    replacements.pattern = containsPattern(filter.q);
+  }
+  const clause = where.length > 0 ? ` WHERE ${where.join(' AND ')}` : '';
+  const releases = sequelize.getDialect() === 'sqlite' ? 'releases r INDEXED BY releases_listing' : 'releases r';
+  const countFrom = filter.q ? 'releases r JOIN designs d ON d.id = r.design_id' : 'releases r';
+  const [rows, counted] = await Promise.all([
+    sequelize.query<Record<string, unknown>>(`${LIST_SELECT.replace('{releases}', releases)}${clause} ORDER BY r.id DESC LIMIT :limit OFFSET :offset`, { replacements, type: QueryTypes.SELECT }),
+    sequelize.query<{ total: unknown }>(`SELECT COUNT(*) AS total FROM ${countFrom}${clause}`, { replacements, type: QueryTypes.SELECT }),
   ]);
-  return { rows: rows.map(plain), total };
+  return {
+    total: Number(counted[0].total),
+    rows: rows.map((x) => ({
+      id: Number(x.id), designId: Number(x.designId), designName: String(x.designName), revisionId: Number(x.revisionId),
+      revisionNumber: Number(x.revisionNumber), version: String(x.version), fileName: String(x.fileName), sha256: String(x.sha256),
+      sizeBytes: Number(x.sizeBytes), releasedById: Number(x.releasedById), releasedBy: person(x.releasedById, x.releasedByName, x.releasedByEmail),
+      createdAt: toDate(x.createdAt), withdrawnAt: x.withdrawnAt === null ? null : toDate(x.withdrawnAt),
+      withdrawnReason: x.withdrawnReason === null ? null : String(x.withdrawnReason),
+      withdrawnById: x.withdrawnById === null ? null : Number(x.withdrawnById), withdrawnBy: person(x.withdrawnById, x.withdrawnByName, x.withdrawnByEmail),
+    })),
+  };
 }
 
 /**

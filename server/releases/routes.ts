@@ -3,7 +3,8 @@ import { idParamsSchema } from '../../shared/api/common';
 import { createReleaseRequestSchema, listReleasesQuerySchema, withdrawReleaseRequestSchema } from '../../shared/api/releases';
 import { ALL_ROLES, route } from '../middleware/route';
 import { sendPage } from '../middleware/page';
-import { releaseView, releaseViews } from '../revisions/view';
+import { releaseView } from '../revisions/view';
+import { presentRelease } from './presenter';
 import { downloadRelease, getRelease, listReleases, release, releaseReport, withdrawRelease } from './service';
 
 /** Routes of /api/revisions/:id/release and /api/releases. */
@@ -16,7 +17,7 @@ export const releaseRoutes = [
     method: 'get', path: '/releases', access: ALL_ROLES, tokens: true, schema: { query: listReleasesQuerySchema },
     handler: async ({ input, res }) => {
       const { rows, total } = await listReleases(input.query);
-      sendPage(res, await releaseViews(rows), total);
+      sendPage(res, rows.map((r) => presentRelease(r, r)), total);
     },
   }),
   route({

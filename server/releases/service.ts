@@ -12,7 +12,9 @@ import { findRevision, lockRevision, setRevisionStatus } from '../revisions/repo
 import { exportInputOf } from '../revisions/service';
 import { buildBundle, TOOL_VERSION } from './exporter';
 import { reportOfBundle } from './report';
-import { findRelease, findReleaseByVersion, insertRelease, listReleaseRows, lockRelease, markWithdrawn, releaseBytes, type ReleaseRow } from './repository';
+import {
+  findRelease, findReleaseByVersion, insertRelease, listReleaseRows, lockRelease, markWithdrawn, releaseBytes, type ReleaseListRow, type ReleaseRow,
+} from './repository';
 
 /**
  * SHA-256 hex of bytes.
@@ -67,7 +69,7 @@ export async function release(app: AppContext, actor: UserActor, revisionId: num
  * @param q - design name, design id, version and text filters; page.
  * @returns one page of rows, newest first, and how many match.
  */
-export async function listReleases(q: ListReleasesQuery): Promise<{ rows: ReleaseRow[]; total: number }> {
+export async function listReleases(q: ListReleasesQuery): Promise<{ rows: ReleaseListRow[]; total: number }> {
   let designId = q.designId;
   if (q.design !== undefined) {
     const named = await designIdByName(q.design);

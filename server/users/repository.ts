@@ -1,5 +1,5 @@
 // Account storage; returns plain objects.
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { lockFor } from '../db/connection';
 import type { Role } from '../../shared/api/common';
 import { UserModel } from './model';
@@ -65,13 +65,16 @@ export async function peopleByIds(ids: readonly number[]): Promise<Map<number, P
 }
 
 /**
- * Finds an enabled account by id.
+ * Finds an enabled account by id (what a session needs of it).
  * @param id - user id.
  * @returns the row or null when absent or disabled.
  */
-export async function findActiveUser(id: number): Promise<UserRow | null> {
-  const row = await findUser(id);
-  return row && !row.disabled ? row : null;
+export async function findActiveUser(id: number): Promise<Pick<UserRow, 'id' | 'email' | 'name' | 'role'> | null> {
+  // Every signed-in request asks this: one plain statement, no model instance.
+  const [row] = await UserModel.sequelize!.query<Pick<UserRow, 'id' | 'email' | 'name' | 'role'>>(
+    'SELECT id, email, name, role FROM users WHERE id = :id AND disabled = :enabled', { replacements: { id, enabled: false }, type: QueryTypes.SELECT },
+  );
+  return row ?? null;
 }
 
 /**

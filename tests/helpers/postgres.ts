@@ -3,7 +3,7 @@
 // scripts/pg-throwaway.sh), and that throwaway cluster started from Node when no server is given.
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
-import pg from 'pg';
+import { QueryTypes, Sequelize } from 'sequelize';
 
 /**
  * The URL of another database on the same server.
@@ -25,12 +25,11 @@ export function databaseUrl(serverUrl: string, database: string): string {
  * @returns the rows.
  */
 export async function adminQuery(serverUrl: string, sql: string, values: unknown[] = []): Promise<Record<string, unknown>[]> {
-  const client = new pg.Client({ connectionString: serverUrl });
-  await client.connect();
+  const client = new Sequelize(serverUrl, { logging: false, pool: { max: 1, min: 0 } });
   try {
-    return (await client.query(sql, values)).rows as Record<string, unknown>[];
+    return await client.query<Record<string, unknown>>(sql, { bind: values, type: QueryTypes.SELECT });
   } finally {
-    await client.end();
+    await client.close();
   }
 }
 
@@ -45,8 +44,8 @@ export async function ensureDatabase(serverUrl: string, name: string): Promise<s
   const found = await adminQuery(serverUrl, 'SELECT 1 FROM pg_database WHERE datname = $1', [name]);
   if (found.length === 0) {
     // 42P04 duplicate_database, 23505 unique_violation on pg_database: another caller created it meanwhile.
-    await adminQuery(serverUrl, `CREATE DATABASE ${name}`).catch((err: { code?: string }) => {
-      if (err.code !== '42P04' && err.code !== '23505') throw err;
+    await adminQuery(serverUrl, `CREATE DATABASE ${name}`).catch((err: { original?: { code?: string } }) => {
+      if (err.original?.code !== '42P04' && err.original?.code !== '23505') throw err;
     });
   }
   return databaseUrl(serverUrl, name);

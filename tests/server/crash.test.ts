@@ -12,7 +12,7 @@ let child: ChildProcess | null = null;
 afterAll(() => { if (child && child.exitCode === null) child.kill('SIGKILL'); });
 
 async function startChild(databasePath: string): Promise<{ proc: ChildProcess; url: string }> {
-  const proc = spawn(path.resolve('node_modules/.bin/tsx'), ['server/index.ts'], {
+  const proc = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     env: { ...process.env, ...(await databaseEnv(databasePath)), PORT: '0', HOST: '127.0.0.1', VARSMITH_NO_CLIENT: '1', LOG_LEVEL: 'error' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

@@ -24,7 +24,7 @@ const total = (res: request.Response) => Number(res.headers['x-total-count']);
  */
 async function withSql(send: () => request.Test): Promise<{ res: request.Response; sql: string[] }> {
   const sql: string[] = [];
-  const options = booted.ctx.db.sequelize.options as { logging: false | ((s: string) => void) };
+  const options = (booted.ctx.db.sequelize as unknown as { options: { logging: false | ((s: string) => void) } }).options;
   options.logging = (s: string) => { sql.push(s); };
   try {
     return { res: await send(), sql };
@@ -96,7 +96,7 @@ describe('GET /api/releases', () => {
     const small = await withSql(() => api().get('/api/releases?limit=5').set('Authorization', bearer(t.tester)));
     const large = await withSql(() => api().get('/api/releases?limit=50').set('Authorization', bearer(t.tester)));
     expect(large.res.body).toHaveLength(50);
-    expect(small.sql.some((s) => /FROM .releases./.test(s))).toBe(true);
+    expect(small.sql.some((s) => /FROM\W+releases\W/.test(s))).toBe(true);
     expect(large.sql.length).toBe(small.sql.length);
     expect(large.sql.join('\n')).not.toMatch(/bundle/);
   });
@@ -127,7 +127,7 @@ describe('GET /api/designs and GET /api/designs/:id/revisions', () => {
     const one = await withSql(() => api().get('/api/designs?limit=1').set('Authorization', bearer(t.admin)));
     const all = await withSql(() => api().get('/api/designs?limit=200').set('Authorization', bearer(t.admin)));
     expect(all.res.body.length).toBeGreaterThan(3);
-    expect(one.sql.some((s) => /FROM .designs./.test(s))).toBe(true);
+    expect(one.sql.some((s) => /FROM\W+designs\W/.test(s))).toBe(true);
     expect(all.sql.length).toBe(one.sql.length);
     expect(all.sql.join('\n')).not.toMatch(/content|analysis|bundle/);
     const paging = all.res.body.find((d: { name: string }) => d.name === 'Paging Rack');
@@ -138,7 +138,7 @@ describe('GET /api/designs and GET /api/designs/:id/revisions', () => {
     const { res, sql } = await withSql(() => api().get(`/api/designs/${made.designId}/revisions?limit=10&offset=10`).set('Authorization', bearer(t.reviewer)));
     expect(total(res)).toBe(made.revisionIds.length);
     expect(res.body.map((r: { number: number }) => r.number)).toEqual(Array.from({ length: 10 }, (_, i) => made.revisionIds.length - 10 - i));
-    expect(sql.some((s) => /FROM .revisions./.test(s))).toBe(true);
+    expect(sql.some((s) => /FROM\W+revisions\W/.test(s))).toBe(true);
     expect(sql.join('\n')).not.toMatch(/analysis|"design"|`design`/);
     const first = await api().get(`/api/designs/${made.designId}/revisions`).set('Authorization', bearer(t.reviewer));
     expect(first.body).toHaveLength(PAGE_SIZES.revisions.default);
