@@ -40,6 +40,7 @@ const ORDERS: Record<DesignSort, Order> = {
 export async function listDesignRows(q: ListDesignsQuery): Promise<{ rows: DesignListRow[]; total: number }> {
   const conditions: WhereOptions[] = [];
   if (q.q) conditions.push(textContains('Design.name', q.q));
+  if (q.id !== undefined) conditions.push({ id: q.id });
   if (q.status) {
     const status = DesignModel.sequelize!.escape(q.status);
     // Designs whose newest revision has the status (index revisions_design_number).

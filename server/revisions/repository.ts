@@ -60,13 +60,14 @@ export async function lockRevision(id: number, transaction: Transaction): Promis
 /**
  * One page of the revisions of a design, newest first (index revisions_design_number), and how many there are.
  * @param designId - design id.
- * @param page - limit and offset.
+ * @param page - limit and offset, and optionally only numbers below `before`.
  * @returns the rows of the page and the total.
  */
-export async function listRevisionSummaries(designId: number, page: PageRequest): Promise<{ rows: RevisionSummaryRow[]; total: number }> {
+export async function listRevisionSummaries(designId: number, page: PageRequest & { before?: number }): Promise<{ rows: RevisionSummaryRow[]; total: number }> {
+  const where = page.before === undefined ? { designId } : { designId, number: { [Op.lt]: page.before } };
   const [total, rows] = await Promise.all([
-    RevisionModel.count({ where: { designId } }),
-    RevisionModel.findAll({ where: { designId }, attributes: [...SUMMARY_ATTRIBUTES], order: [['number', 'DESC']], limit: page.limit, offset: page.offset }),
+    RevisionModel.count({ where }),
+    RevisionModel.findAll({ where, attributes: [...SUMMARY_ATTRIBUTES], order: [['number', 'DESC']], limit: page.limit, offset: page.offset }),
   ]);
   return { rows: rows.map(summary), total };
 }

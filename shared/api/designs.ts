@@ -73,10 +73,11 @@ export type DesignSort = z.infer<typeof designSortSchema>;
 
 /**
  * Query of `GET /api/designs`: optional case-insensitive name filter, status of the latest revision,
- * order (default by name), one page.
+ * one design by id (the row a page needs without walking the list), order (default by name), one page.
  */
 export const listDesignsQuerySchema = z.object({
   q: z.string().max(200).optional(),
+  id: z.coerce.number().int('must be an integer').positive('must be positive').optional(),
   status: revisionStatusSchema.optional(),
   sort: designSortSchema.default('name'),
   ...pageQueryShape('designs'),

@@ -5,8 +5,11 @@ import { idParamSchema, personSchema } from './common';
 import { pageQueryShape } from './paging';
 import type { RevisionSummary } from './designs';
 
-/** Query of `GET /api/designs/:id/revisions`: one page, newest first. */
-export const listRevisionsQuerySchema = z.object({ ...pageQueryShape('revisions') });
+/** Query of `GET /api/designs/:id/revisions`: optionally only the revisions numbered below `before`; one page, newest first. */
+export const listRevisionsQuerySchema = z.object({
+  before: z.coerce.number().int('must be an integer').positive('must be positive').optional(),
+  ...pageQueryShape('revisions'),
+});
 /** A revisions-list query. */
 export type ListRevisionsQuery = z.infer<typeof listRevisionsQuerySchema>;
 

@@ -1,7 +1,8 @@
 // Administration (CONTRACT section 6: /api/admin/users, /api/admin/mail, /api/admin/audit).
 import type { AuditEvent, ListAuditQuery, MailMessage } from '../../shared/api/admin';
+import { PAGE_SIZES, type Page, type PageRequest } from '../../shared/api/paging';
 import type { CreateUserRequest, UpdateUserRequest, User } from '../../shared/api/users';
-import { apiRequest } from './client';
+import { apiPage, apiRequest } from './client';
 
 function unwrapUser(body: User | { user: User }): User {
   return 'user' in body ? body.user : body;
@@ -35,32 +36,25 @@ export async function updateAccount(id: number, change: UpdateUserRequest): Prom
   return unwrapUser(await apiRequest<User | { user: User }>('PATCH', `/api/admin/users/${encodeURIComponent(String(id))}`, change));
 }
 
-/** Filters of the audit log as the page sends them (limit defaults on the server). */
-export type AuditFilter = Partial<Omit<ListAuditQuery, 'limit'>> & { limit?: number };
+/** Filters of the audit log as the page sends them. */
+export type AuditFilter = Partial<Omit<ListAuditQuery, 'limit' | 'offset'>>;
 
 /**
- * Reads the audit log, newest first, filtered.
+ * Reads one page of the audit log, newest first, filtered.
  * @param filter - action, actor, target and time window.
- * @returns the entries.
+ * @param page - limit and offset (default: the newest page).
+ * @returns the page with the number of matching entries.
  */
-export async function listAudit(filter: AuditFilter = {}): Promise<AuditEvent[]> {
-  const search = new URLSearchParams();
-  for (const [key, value] of Object.entries(filter)) {
-    if (value !== undefined && value !== null && value !== '') search.set(key, String(value));
-  }
-  const suffix = search.toString() ? `?${search.toString()}` : '';
-  const body = await apiRequest<AuditEvent[] | { events: AuditEvent[] } | { audit: AuditEvent[] }>('GET', `/api/admin/audit${suffix}`);
-  if (Array.isArray(body)) return body;
-  return 'events' in body ? body.events : body.audit;
+export function listAudit(filter: AuditFilter = {}, page: PageRequest = { limit: PAGE_SIZES.audit.default, offset: 0 }): Promise<Page<AuditEvent>> {
+  return apiPage<AuditEvent>('/api/admin/audit', filter, page);
 }
 
 /**
- * Reads the messages the local mail server received.
+ * Reads one page of the messages the local mail server received, newest first.
  * @param to - optional recipient filter.
- * @returns the messages, newest first.
+ * @param page - limit and offset (default: the newest page).
+ * @returns the page with the number of matching messages.
  */
-export async function listMail(to?: string): Promise<MailMessage[]> {
-  const suffix = to ? `?${new URLSearchParams({ to }).toString()}` : '';
-  const body = await apiRequest<MailMessage[] | { messages: MailMessage[] }>('GET', `/api/admin/mail${suffix}`);
-  return Array.isArray(body) ? body : body.messages;
+export function listMail(to?: string, page: PageRequest = { limit: PAGE_SIZES.mail.default, offset: 0 }): Promise<Page<MailMessage>> {
+  return apiPage<MailMessage>('/api/admin/mail', { to }, page);
 }

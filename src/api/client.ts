@@ -1,5 +1,6 @@
 // The one HTTP client of the Varsmith web app (STYLE habit 12). Every request goes through
-// `apiRequest`; components and stores never call fetch themselves.
+// `apiRequest` (or `apiPage` for the paged lists); components and stores never call fetch themselves.
+import { TOTAL_COUNT_HEADER, type Page, type PageRequest } from '../../shared/api/paging';
 
 /** One field-level problem reported by the API (CONTRACT section 6 error shape). */
 export interface ApiFieldError {
@@ -103,6 +104,39 @@ export async function apiRequest<T>(method: 'GET' | 'POST' | 'PUT' | 'PATCH' | '
 export async function apiText(path: string): Promise<string> {
   const response = await send('GET', path, undefined, 'text/markdown, text/plain, */*');
   return response.text();
+}
+
+/**
+ * A path with query parameters; empty, null and undefined values are left out.
+ * @param path - absolute path starting with `/api/`.
+ * @param params - the parameters.
+ * @returns the path with `?…` when any parameter remains.
+ */
+export function withQuery(path: string, params: Record<string, string | number | null | undefined>): string {
+  const search = new URLSearchParams();
+  for (const [key, value] of Object.entries(params)) {
+    if (value !== undefined && value !== null && value !== '') search.set(key, String(value));
+  }
+  const query = search.toString();
+  return query ? `${path}?${query}` : path;
+}
+
+/**
+ * Reads one page of a list route: the body is the page's JSON array, the `X-Total-Count` header the
+ * number of rows matching the filters (shared/api/paging.ts). Without the header the total is what
+ * this page shows up to its end.
+ * @param path - absolute path starting with `/api/`, without paging parameters.
+ * @param params - filters of the list.
+ * @param page - limit and offset.
+ * @returns the page.
+ */
+export async function apiPage<T>(path: string, params: Record<string, string | number | null | undefined>, page: PageRequest): Promise<Page<T>> {
+  const response = await send('GET', withQuery(path, { ...params, limit: page.limit, offset: page.offset }), undefined, 'application/json');
+  const body = (await response.json()) as T[] | Record<string, unknown>;
+  const items = Array.isArray(body) ? body : ((Object.values(body).find(Array.isArray) as T[] | undefined) ?? []);
+  const header = response.headers.get(TOTAL_COUNT_HEADER);
+  const total = header !== null && Number.isFinite(Number(header)) ? Number(header) : page.offset + items.length;
+  return { items, total, limit: page.limit, offset: page.offset };
 }
 
 /** Progress of a download: bytes received and total (null when the server sent no length). */

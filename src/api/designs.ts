@@ -1,15 +1,21 @@
 // Designs and their working copies (CONTRACT section 6: /api/designs).
 import type { DesignInput } from '../../shared/control';
-import { apiDownload, apiRequest, type DownloadedFile, type DownloadProgress } from './client';
+import type { ListDesignsQuery } from '../../shared/api/designs';
+import { PAGE_SIZES, type Page } from '../../shared/api/paging';
+import { apiDownload, apiPage, apiRequest, type DownloadedFile, type DownloadProgress } from './client';
 import type { DesignDetail, DesignSummary } from './types';
 
+/** Filters, order and page of the designs list (every field optional). */
+export type DesignListQuery = Partial<ListDesignsQuery>;
+
 /**
- * Lists designs with their latest revision and release.
- * @returns the design rows.
+ * Lists one page of designs with their latest revision and release.
+ * @param query - name part, latest status, one id, order, page (default: first page by name).
+ * @returns the page with the number of matching designs.
  */
-export async function listDesigns(): Promise<DesignSummary[]> {
-  const body = await apiRequest<DesignSummary[] | { designs: DesignSummary[] }>('GET', '/api/designs');
-  return Array.isArray(body) ? body : body.designs;
+export function listDesigns(query: DesignListQuery = {}): Promise<Page<DesignSummary>> {
+  const { limit = PAGE_SIZES.designs.default, offset = 0, ...filters } = query;
+  return apiPage<DesignSummary>('/api/designs', filters, { limit, offset });
 }
 
 function unwrap(body: DesignDetail | { design: DesignDetail }): DesignDetail {

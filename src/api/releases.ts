@@ -1,6 +1,7 @@
 // Released sets (CONTRACT section 6: /api/revisions/:id/release, /api/releases).
+import { PAGE_SIZES, type Page } from '../../shared/api/paging';
 import type { ListReleasesQuery, Release } from '../../shared/api/releases';
-import { apiDownload, apiRequest, apiText, type DownloadedFile, type DownloadProgress } from './client';
+import { apiDownload, apiPage, apiRequest, apiText, type DownloadedFile, type DownloadProgress } from './client';
 
 function idPart(id: string | number): string {
   return encodeURIComponent(String(id));
@@ -11,18 +12,13 @@ function unwrapRelease(body: Release | { release: Release }): Release {
 }
 
 /**
- * Lists released sets, optionally filtered.
- * @param query - design name, design id or version filter.
- * @returns the releases as the server orders them.
+ * Lists one page of released sets, newest first, optionally filtered.
+ * @param query - design name, design id, version, part of name or version; page (default: the first).
+ * @returns the page with the number of matching releases.
  */
-export async function listReleases(query: Partial<ListReleasesQuery> = {}): Promise<Release[]> {
-  const search = new URLSearchParams();
-  if (query.design) search.set('design', query.design);
-  if (query.designId !== undefined) search.set('designId', String(query.designId));
-  if (query.version) search.set('version', query.version);
-  const suffix = search.toString() ? `?${search.toString()}` : '';
-  const body = await apiRequest<Release[] | { releases: Release[] }>('GET', `/api/releases${suffix}`);
-  return Array.isArray(body) ? body : body.releases;
+export function listReleases(query: Partial<ListReleasesQuery> = {}): Promise<Page<Release>> {
+  const { limit = PAGE_SIZES.releases.default, offset = 0, ...filters } = query;
+  return apiPage<Release>('/api/releases', filters, { limit, offset });
 }
 
 /**

@@ -1,6 +1,7 @@
 // Revisions of a design (CONTRACT section 6: /api/designs/:id/revisions, /api/revisions/:id).
-import { apiRequest } from './client';
+import { PAGE_SIZES, type Page, type PageRequest } from '../../shared/api/paging';
 import type { RevisionListItem } from '../../shared/api/revisions';
+import { apiPage, apiRequest } from './client';
 import type { RevisionDetail, RevisionSummary } from './types';
 
 export type { RevisionListItem } from '../../shared/api/revisions';
@@ -17,13 +18,17 @@ export async function submitRevision(designId: string | number, summary: string)
 }
 
 /**
- * Lists the revisions of a design, newest first as the server orders them.
+ * Lists one page of the revisions of a design, newest first as the server orders them.
  * @param designId - design id.
- * @returns the revisions with their reviews.
+ * @param page - limit and offset (default: the newest page).
+ * @param filter - `before`: only the revisions numbered below it.
+ * @param filter.before - a revision number.
+ * @returns the page (revisions with their reviews) with the number of matching revisions.
  */
-export async function listRevisions(designId: string | number): Promise<RevisionListItem[]> {
-  const body = await apiRequest<RevisionListItem[] | { revisions: RevisionListItem[] }>('GET', `/api/designs/${encodeURIComponent(String(designId))}/revisions`);
-  return Array.isArray(body) ? body : body.revisions;
+export function listRevisions(
+  designId: string | number, page: PageRequest = { limit: PAGE_SIZES.revisions.default, offset: 0 }, filter: { before?: number } = {},
+): Promise<Page<RevisionListItem>> {
+  return apiPage<RevisionListItem>(`/api/designs/${encodeURIComponent(String(designId))}/revisions`, filter, page);
 }
 
 /**

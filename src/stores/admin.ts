@@ -2,6 +2,7 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import type { AuditEvent, MailMessage } from '../../shared/api/admin';
+import { PAGE_SIZES, type PageRequest } from '../../shared/api/paging';
 import type { CreateUserRequest, UpdateUserRequest, User } from '../../shared/api/users';
 import { createAccount, listAccounts, listAudit, listMail, updateAccount, type AuditFilter } from '../api/admin';
 
@@ -9,12 +10,20 @@ import { createAccount, listAccounts, listAudit, listMail, updateAccount, type A
 export const useAdminStore = defineStore('admin', () => {
   /** Every account, sorted by name. */
   const users = ref<User[]>([]);
-  /** Audit entries of the last query. */
+  /** Audit entries of the page last loaded. */
   const audit = ref<AuditEvent[]>([]);
   /** The filter of the last audit query. */
   const auditFilter = ref<AuditFilter>({});
-  /** Captured messages, newest first. */
+  /** The page of `audit`. */
+  const auditPage = ref<PageRequest>({ limit: PAGE_SIZES.audit.default, offset: 0 });
+  /** Entries matching the filter, all pages together. */
+  const auditTotal = ref(0);
+  /** Captured messages of the page last loaded, newest first. */
   const mail = ref<MailMessage[]>([]);
+  /** The page of `mail`. */
+  const mailPage = ref<PageRequest>({ limit: PAGE_SIZES.mail.default, offset: 0 });
+  /** Messages matching the recipient filter, all pages together. */
+  const mailTotal = ref(0);
 
   function sortUsers(rows: User[]): User[] {
     return [...rows].sort((x, y) => x.name.localeCompare(y.name));
@@ -40,19 +49,27 @@ export const useAdminStore = defineStore('admin', () => {
     return updated;
   }
 
-  /** Queries the audit log. */
-  async function loadAudit(filter: AuditFilter = {}): Promise<AuditEvent[]> {
+  /** Queries one page of the audit log (the first page unless given). */
+  async function loadAudit(filter: AuditFilter = {}, page: PageRequest = { limit: auditPage.value.limit, offset: 0 }): Promise<AuditEvent[]> {
+    const loaded = await listAudit(filter, page);
     auditFilter.value = { ...filter };
-    audit.value = await listAudit(filter);
+    auditPage.value = { ...page };
+    auditTotal.value = loaded.total;
+    audit.value = loaded.items;
     return audit.value;
   }
 
-  /** Reloads the mail outbox. */
-  async function loadMail(to?: string): Promise<MailMessage[]> {
-    const rows = await listMail(to);
-    mail.value = [...rows].sort((x, y) => y.receivedAt.localeCompare(x.receivedAt));
+  /** Loads one page of the mail outbox (the first page unless given). */
+  async function loadMail(to?: string, page: PageRequest = { limit: mailPage.value.limit, offset: 0 }): Promise<MailMessage[]> {
+    const loaded = await listMail(to, page);
+    mailPage.value = { ...page };
+    mailTotal.value = loaded.total;
+    mail.value = [...loaded.items].sort((x, y) => y.receivedAt.localeCompare(x.receivedAt));
     return mail.value;
   }
 
-  return { users, audit, auditFilter, mail, loadUsers, createUser, updateUser, loadAudit, loadMail };
+  return {
+    users, audit, auditFilter, auditPage, auditTotal, mail, mailPage, mailTotal,
+    loadUsers, createUser, updateUser, loadAudit, loadMail,
+  };
 });

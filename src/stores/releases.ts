@@ -1,21 +1,31 @@
-// Released sets: the list, releasing an approved revision, downloading bundle bytes.
+// Released sets: one page of the list, releasing an approved revision, downloading bundle bytes.
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import type { Release } from '../../shared/api/releases';
+import type { ListReleasesQuery, Release } from '../../shared/api/releases';
 import type { DownloadedFile, DownloadProgress } from '../api/client';
 import { createRelease, downloadReleaseBundle, getRelease, listReleases, withdrawRelease } from '../api/releases';
 
 /** Released sets visible to everyone. */
 export const useReleasesStore = defineStore('releases', () => {
-  /** Releases of the last load, newest first. */
+  /** Releases of the page last loaded, newest first. */
   const items = ref<Release[]>([]);
+  /** Releases matching the filters of that load, all pages together. */
+  const total = ref(0);
+  /** Filters and page of that load. */
+  const query = ref<Partial<ListReleasesQuery>>({});
   /** Whether a load has completed at least once. */
   const loaded = ref(false);
 
-  /** Reloads every release. */
-  async function load(): Promise<Release[]> {
-    const rows = await listReleases();
-    items.value = [...rows].sort((x, y) => y.createdAt.localeCompare(x.createdAt));
+  let latest = 0;
+
+  /** Loads one page (by default the query of the last load again); an answer overtaken by a newer load is dropped. */
+  async function load(next: Partial<ListReleasesQuery> = query.value): Promise<Release[]> {
+    const mine = ++latest;
+    const page = await listReleases(next);
+    if (mine !== latest) return items.value;
+    items.value = [...page.items].sort((x, y) => y.createdAt.localeCompare(x.createdAt));
+    total.value = page.total;
+    query.value = { ...next };
     loaded.value = true;
     return items.value;
   }
@@ -24,6 +34,7 @@ export const useReleasesStore = defineStore('releases', () => {
   async function release(revisionId: number, version: string): Promise<Release> {
     const created = await createRelease(revisionId, version);
     items.value = [created, ...items.value.filter((r) => r.id !== created.id)];
+    total.value += 1;
     return created;
   }
 
@@ -46,5 +57,5 @@ export const useReleasesStore = defineStore('releases', () => {
     return changed;
   }
 
-  return { items, loaded, load, loadOne, release, download, withdraw };
+  return { items, total, query, loaded, load, loadOne, release, download, withdraw };
 });

@@ -118,6 +118,9 @@ describe('GET /api/designs and GET /api/designs/:id/revisions', () => {
     expect(inReview.body.every((d: { latestRevision: { status: string } | null }) => d.latestRevision?.status === 'in-review')).toBe(true);
     expect(inReview.body.map((d: { name: string }) => d.name)).toContain('quay cabinet east');
     expect(total(inReview)).toBe(all.body.filter((d: { latestRevision: { status: string } | null }) => d.latestRevision?.status === 'in-review').length);
+    const one = await api().get(`/api/designs?id=${second.body.id}`).set('Authorization', bearer(t.reviewer));
+    expect(one.body.map((d: { name: string }) => d.name)).toEqual(['quay cabinet east']);
+    expect(total(one)).toBe(1);
     const newest = await api().get('/api/designs?sort=-updatedAt&limit=1').set('Authorization', bearer(t.reviewer));
     expect(newest.body[0].name).toBe('quay cabinet east');
     expect((await api().get('/api/designs?sort=owner').set('Authorization', bearer(t.reviewer))).status).toBe(400);

@@ -31,16 +31,46 @@ describe('DesignsPage', { timeout: 30000 }, () => {
     expect(root.querySelector('[data-test="new-design"]')).not.toBeNull();
   });
 
-  it('filters by the search text', async () => {
+  it('asks the server for the designs whose name holds the search text, from the first page', async () => {
     signInAs('engineer');
-    server.use(http.get('*/api/designs', () => HttpResponse.json(rows)));
+    const asked: URLSearchParams[] = [];
+    server.use(http.get('*/api/designs', ({ request }) => {
+      const query = new URL(request.url).searchParams;
+      asked.push(query);
+      const q = (query.get('q') ?? '').toLowerCase();
+      return HttpResponse.json(rows.filter((r) => r.name.toLowerCase().includes(q)));
+    }));
     const { root } = await mountApp('/designs');
     await waitFor(() => tableText(root).includes('Harbour'));
+    expect(Object.fromEntries(asked[0].entries())).toEqual({ sort: '-updatedAt', limit: '25', offset: '0' });
     const input = root.querySelector<HTMLInputElement>('[data-test="design-search"] input, input[data-test="design-search"]')!;
-    input.value = 'kit';
+    input.value = 'harb';
     input.dispatchEvent(new Event('input'));
     await waitFor(() => !tableText(root).includes('Bay 4 rig'));
     expect(tableText(root)).toContain('Harbour cabinet LCL');
+    expect(asked.at(-1)!.get('q')).toBe('harb');
+    expect(asked.at(-1)!.get('offset')).toBe('0');
+  });
+
+  it('shows the total from X-Total-Count and fetches the next page from the server', async () => {
+    signInAs('reviewer');
+    const offsets: string[] = [];
+    server.use(http.get('*/api/designs', ({ request }) => {
+      const offset = Number(new URL(request.url).searchParams.get('offset'));
+      offsets.push(String(offset));
+      const page = Array.from({ length: offset === 0 ? 25 : 5 }, (_, i) => buildDesignDetail({ id: offset + i + 1, name: `Rack ${offset + i + 1}` }));
+      return HttpResponse.json(page, { headers: { 'X-Total-Count': '30' } });
+    }));
+    const { root } = await mountApp('/designs');
+    await waitFor(() => tableText(root).includes('Rack 25'));
+    expect(tableText(root)).toContain('1–25 of 30');
+    const next = [...root.querySelectorAll<HTMLButtonElement>('[data-test="designs-table"] .q-table__bottom button')]
+      .find((b) => b.textContent?.includes('chevron_right'))!;
+    next.click();
+    await waitFor(() => tableText(root).includes('Rack 30'));
+    expect(tableText(root)).toContain('26–30 of 30');
+    expect(tableText(root)).not.toContain('Rack 25');
+    expect(offsets).toEqual(['0', '25']);
   });
 
   it('shows the empty state, and no create button for a reviewer', async () => {

@@ -105,4 +105,22 @@ describe('ReleasesPage', () => {
     expect(isDisabled(dialog.querySelector('[data-test="release-submit"]'))).toBe(true);
     expect(dialog.querySelector('[data-test="release-error-checks"]')!.textContent).toContain('2 error checks');
   });
+
+  it('asks the server for one page, newest first, and sends the filter as q', async () => {
+    signInAs('tester');
+    const asked: URLSearchParams[] = [];
+    server.use(http.get('*/api/releases', ({ request }) => {
+      const query = new URL(request.url).searchParams;
+      asked.push(query);
+      return HttpResponse.json(query.get('q') ? [] : [released], { headers: { 'X-Total-Count': query.get('q') ? '0' : '61' } });
+    }));
+    const { root } = await mountApp('/releases');
+    await waitFor(() => (root.querySelector('[data-test="releases-table"]')?.textContent ?? '').includes('1–25 of 61'));
+    expect(Object.fromEntries(asked[0].entries())).toEqual({ limit: '25', offset: '0' });
+    const filter = input(root, 'release-search');
+    filter.value = '2.0';
+    filter.dispatchEvent(new Event('input'));
+    await waitFor(() => asked.some((q) => q.get('q') === '2.0'));
+    await waitFor(() => (root.querySelector('[data-test="releases-table"]')?.textContent ?? '').includes('No release matches'));
+  });
 });

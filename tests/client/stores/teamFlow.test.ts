@@ -60,6 +60,32 @@ describe('review store', () => {
     const store = useReviewStore();
     expect((await store.loadHistory(7)).map((r) => r.number)).toEqual([3, 2, 1]);
   });
+
+  it('reads one page of the history and the revision just older than it, with the total', async () => {
+    let asked: URLSearchParams | null = null;
+    server.use(http.get('*/api/designs/7/revisions', ({ request }) => {
+      asked = new URL(request.url).searchParams;
+      return HttpResponse.json([5, 4, 3].map((n) => buildRevisionSummary({ id: 100 + n, number: n })), { headers: { 'X-Total-Count': '9' } });
+    }));
+    const store = useReviewStore();
+    expect((await store.loadHistory(7, { limit: 2, offset: 4 })).map((r) => r.number)).toEqual([5, 4]);
+    expect(Object.fromEntries(asked!.entries())).toEqual({ limit: '3', offset: '4' });
+    expect(store.historyOlder?.number).toBe(3);
+    expect(store.historyTotal).toBe(9);
+  });
+
+  it('asks only for designs in review for the queue and keeps how many wait in all', async () => {
+    let asked: URLSearchParams | null = null;
+    server.use(http.get('*/api/designs', ({ request }) => {
+      asked = new URL(request.url).searchParams;
+      return HttpResponse.json([buildDesignDetail({ id: 1, latestRevision: buildRevisionSummary({ id: 11, designId: 1 }) })], { headers: { 'X-Total-Count': '240' } });
+    }));
+    const store = useReviewStore();
+    await store.loadQueue();
+    expect(asked!.get('status')).toBe('in-review');
+    expect(asked!.get('limit')).toBe('200');
+    expect(store.queueTotal).toBe(240);
+  });
 });
 
 describe('releases store', () => {
@@ -96,6 +122,18 @@ describe('releases store', () => {
     const file = await useReleasesStore().download(3);
     expect(file.fileName).toBe('bay-4-rig-1.0.0.zip');
     expect([...new Uint8Array(await file.blob.arrayBuffer())]).toEqual([...bytes]);
+  });
+
+  it('takes the total from X-Total-Count, and without it counts what the page shows', async () => {
+    server.use(http.get('*/api/releases', ({ request }) => {
+      const withHeader = new URL(request.url).searchParams.get('q') === 'bay';
+      return HttpResponse.json([buildRelease()], withHeader ? { headers: { 'X-Total-Count': '130' } } : {});
+    }));
+    const store = useReleasesStore();
+    await store.load({ q: 'bay' });
+    expect(store.total).toBe(130);
+    await store.load({ limit: 25, offset: 50 });
+    expect(store.total).toBe(51);
   });
 });
 
@@ -147,7 +185,7 @@ describe('admin store', () => {
     }));
     await useAdminStore().loadAudit({ action: 'release.create', actorId: 4, since: '2026-11-01T00:00:00.000Z', until: undefined });
     expect(query).not.toBeNull();
-    expect(Object.fromEntries(query!.entries())).toEqual({ action: 'release.create', actorId: '4', since: '2026-11-01T00:00:00.000Z' });
+    expect(Object.fromEntries(query!.entries())).toEqual({ action: 'release.create', actorId: '4', since: '2026-11-01T00:00:00.000Z', limit: '200', offset: '0' });
   });
 
   it('replaces a changed account and keeps the list sorted by name', async () => {
@@ -182,6 +220,19 @@ describe('admin store', () => {
     const mail = await useAdminStore().loadMail('r@varsmith.test');
     expect(to).toBe('r@varsmith.test');
     expect(mail.map((m) => m.subject)).toEqual(['new', 'old']);
+  });
+
+  it('reads one page of the mail outbox with the total of matching messages', async () => {
+    let asked: URLSearchParams | null = null;
+    server.use(http.get('*/api/admin/mail', ({ request }) => {
+      asked = new URL(request.url).searchParams;
+      return HttpResponse.json([{ id: 7, from: 'varsmith@localhost', to: ['tester@varsmith.test'], subject: 'Released', text: 'x', receivedAt: '2026-12-01T10:00:00Z' }], { headers: { 'X-Total-Count': '51' } });
+    }));
+    const store = useAdminStore();
+    await store.loadMail('tester', { limit: 50, offset: 50 });
+    expect(Object.fromEntries(asked!.entries())).toEqual({ to: 'tester', limit: '50', offset: '50' });
+    expect(store.mailTotal).toBe(51);
+    expect(store.mail.map((m) => m.id)).toEqual([7]);
   });
 });
 
