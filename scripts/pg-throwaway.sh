@@ -34,7 +34,9 @@ fi
 
 as_owner=()
 owner=$(id -un)
+base=${TMPDIR:-/tmp}
 if [ "$(id -u)" = "0" ]; then
+  base=/tmp # the cluster's account must reach the folder; root's TMPDIR may sit under /root
   owner=postgres
   if ! id -u "$owner" >/dev/null 2>&1; then
     owner=varsmith-pg
@@ -43,7 +45,7 @@ if [ "$(id -u)" = "0" ]; then
   as_owner=(runuser -u "$owner" --)
 fi
 
-dir=$(mktemp -d "${TMPDIR:-/tmp}/varsmith-pg.XXXXXX")
+dir=$(mktemp -d "$base/varsmith-pg.XXXXXX")
 chmod 700 "$dir"
 [ "${#as_owner[@]}" -eq 0 ] || chown "$owner" "$dir"
 
