@@ -1,6 +1,6 @@
 // Admin payloads: captured mail and the audit log (CONTRACT section 6: /api/admin).
 import { z } from 'zod';
-import { pageQueryShape } from './paging';
+import { listFilterText, pageQueryShape } from './paging';
 
 /** One message the local mail server received. */
 export const mailMessageSchema = z.object({
@@ -16,7 +16,7 @@ export type MailMessage = z.infer<typeof mailMessageSchema>;
 
 /** Query of `GET /api/admin/mail`: optional recipient filter, one page (newest first). */
 export const listMailQuerySchema = z.object({
-  to: z.string().max(254).optional(),
+  to: listFilterText(254).optional(),
   ...pageQueryShape('mail'),
 });
 /** A mail-outbox query. */
@@ -50,7 +50,7 @@ export type AuditEvent = z.infer<typeof auditEventSchema>;
 export const listAuditQuerySchema = z.object({
   action: auditActionSchema.optional(),
   actorId: z.coerce.number().int().positive().optional(),
-  targetType: z.string().max(40).optional(),
+  targetType: listFilterText(40).optional(),
   targetId: z.coerce.number().int().positive().optional(),
   since: z.iso.datetime({ message: 'must be an ISO 8601 time' }).optional(),
   until: z.iso.datetime({ message: 'must be an ISO 8601 time' }).optional(),

@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import type { DesignInput } from '../control/types';
 import { personSchema } from './common';
-import { pageQueryShape } from './paging';
+import { listFilterText, pageQueryShape } from './paging';
 
 /** Revision states: in review, then approved or sent back; released; superseded by a newer submission. */
 export const revisionStatusSchema = z.enum(['in-review', 'approved', 'changes-requested', 'released', 'superseded']);
@@ -76,7 +76,7 @@ export type DesignSort = z.infer<typeof designSortSchema>;
  * one design by id (the row a page needs without walking the list), order (default by name), one page.
  */
 export const listDesignsQuerySchema = z.object({
-  q: z.string().max(200).optional(),
+  q: listFilterText(200).optional(),
   id: z.coerce.number().int('must be an integer').positive('must be positive').optional(),
   status: revisionStatusSchema.optional(),
   sort: designSortSchema.default('name'),

@@ -38,6 +38,20 @@ export function pageQueryShape(list: PagedList) {
   };
 }
 
+/**
+ * A text filter of a list query (a name part, an exact name, an address part): at most `max`
+ * characters and no control characters (a NUL byte is refused by PostgreSQL and would end in 500).
+ *
+ * @param max - largest length, characters.
+ * @returns the zod schema.
+ * @example
+ * listFilterText(200).safeParse('a\u0000b').success; // => false
+ */
+export function listFilterText(max: number) {
+  return z.string().max(max, `must be at most ${max} characters`)
+    .refine((v) => !/[\u0000-\u001f\u007f]/.test(v), { message: 'must not contain control characters' });
+}
+
 /** Which rows of a list: `limit` rows after skipping `offset`. */
 export interface PageRequest {
   limit: number;

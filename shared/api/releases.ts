@@ -1,7 +1,7 @@
 // Release and access-token payloads (CONTRACT section 6: /api/releases, /api/tokens).
 import { z } from 'zod';
 import { personSchema, semverSchema } from './common';
-import { pageQueryShape } from './paging';
+import { listFilterText, pageQueryShape } from './paging';
 
 /** Body of `POST /api/revisions/:id/release`. */
 export const createReleaseRequestSchema = z.object({ version: semverSchema });
@@ -18,10 +18,10 @@ export type WithdrawReleaseRequest = z.infer<typeof withdrawReleaseRequestSchema
  * and `q` (case-insensitive part of the design name or the version); one page, newest first.
  */
 export const listReleasesQuerySchema = z.object({
-  design: z.string().max(200).optional(),
+  design: listFilterText(200).optional(),
   designId: z.coerce.number().int().positive().optional(),
   version: semverSchema.optional(),
-  q: z.string().max(200).optional(),
+  q: listFilterText(200).optional(),
   ...pageQueryShape('releases'),
 });
 /** A release filter. */

@@ -80,6 +80,20 @@ describe('GET /api/releases', () => {
     expect(total(none)).toBe(0);
   });
 
+  it('refuses a control character in a text filter with 400 on every list (PostgreSQL would fail on a NUL byte)', async () => {
+    for (const [route, field, token] of [
+      ['/api/releases?q=a%00b', 'query.q', 'tester'], ['/api/releases?design=a%00b', 'query.design', 'tester'], ['/api/designs?q=a%01b', 'query.q', 'admin'],
+      ['/api/admin/mail?to=a%00b', 'query.to', 'admin'], ['/api/admin/audit?targetType=a%00b', 'query.targetType', 'admin'],
+    ] as const) {
+      const res = await api().get(route).set('Authorization', bearer(t[token]));
+      expect(res.status, route).toBe(400);
+      expect(res.body.error.fields[0]).toEqual({ path: field, message: 'must not contain control characters' });
+    }
+    const far = await api().get('/api/releases?designId=3000000000').set('Authorization', bearer(t.tester));
+    expect(far.status).toBe(200);
+    expect(far.body).toEqual([]);
+  });
+
   it('refuses page parameters out of bounds with 400 naming the field and the rule', async () => {
     for (const [query, path, rule] of [
       ['limit=0', 'query.limit', 'at least 1'], [`limit=${PAGE_SIZES.releases.max + 1}`, 'query.limit', `at most ${PAGE_SIZES.releases.max}`],
