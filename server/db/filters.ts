@@ -1,5 +1,5 @@
-// Filters shared by the list queries, written once for both databases.
-import { col, fn, Op, where } from 'sequelize';
+// Filters and lookups shared by the list queries, written once for both databases.
+import { col, fn, Op, where, type Model, type ModelStatic, type WhereOptions } from 'sequelize';
 
 /**
  * The LIKE pattern of a case-insensitive "contains", compared with the lower-cased column (LIKE is
@@ -19,4 +19,16 @@ export function containsPattern(needle: string): string {
  */
 export function textContains(column: string, needle: string): ReturnType<typeof where> {
   return where(fn('lower', col(column)), { [Op.like]: containsPattern(needle) });
+}
+
+/**
+ * Rows of a model by id, in one query, reading only `attributes` (the related rows of a list page).
+ * @param model - the model.
+ * @param ids - ids (repeats allowed; one page of rows' worth).
+ * @param attributes - the columns to read, `id` included.
+ * @returns the rows found, in no particular order.
+ */
+export async function rowsByIds<M extends Model>(model: ModelStatic<M>, ids: readonly number[], attributes: string[]): Promise<M[]> {
+  const unique = [...new Set(ids)];
+  return unique.length === 0 ? [] : model.findAll({ where: { id: unique } as WhereOptions, attributes });
 }

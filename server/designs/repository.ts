@@ -3,7 +3,7 @@ import { literal, Op, type Order, type Transaction, type WhereOptions } from 'se
 import type { DesignInput } from '../../shared/control';
 import type { DesignSort, ListDesignsQuery } from '../../shared/api/designs';
 import { lockFor } from '../db/connection';
-import { textContains } from '../db/filters';
+import { rowsByIds, textContains } from '../db/filters';
 import { DesignModel } from './model';
 
 /** A design row. */
@@ -60,10 +60,7 @@ export async function listDesignRows(q: ListDesignsQuery): Promise<{ rows: Desig
  * @returns the names found, by id.
  */
 export async function designNames(ids: readonly number[]): Promise<Map<number, string>> {
-  const unique = [...new Set(ids)];
-  if (unique.length === 0) return new Map();
-  const rows = await DesignModel.findAll({ where: { id: unique }, attributes: ['id', 'name'] });
-  return new Map(rows.map((m) => [m.id, m.name]));
+  return new Map((await rowsByIds(DesignModel, ids, ['id', 'name'])).map((m) => [m.id, m.name]));
 }
 
 /**

@@ -2,7 +2,7 @@
 import { literal, Op, QueryTypes, type Transaction } from 'sequelize';
 import type { PageRequest } from '../../shared/api/paging';
 import { lockFor } from '../db/connection';
-import { containsPattern } from '../db/filters';
+import { containsPattern, rowsByIds } from '../db/filters';
 import type { PersonRow } from '../users/repository';
 import { ReleaseModel } from './model';
 
@@ -116,6 +116,16 @@ export async function latestReleases(designIds: readonly number[]): Promise<Map<
     attributes: [...META],
   });
   return new Map(rows.map((m) => [m.designId, plain(m)]));
+}
+
+/**
+ * Design and version of releases by id, in one query.
+ * @param ids - release ids (one page of rows' worth).
+ * @returns what was found, by id.
+ */
+export async function releaseVersions(ids: readonly number[]): Promise<Map<number, { designId: number; version: string }>> {
+  const rows = await rowsByIds(ReleaseModel, ids, ['id', 'designId', 'version']);
+  return new Map(rows.map((m) => [m.id, { designId: m.designId, version: m.version }]));
 }
 
 /**

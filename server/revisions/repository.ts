@@ -5,6 +5,7 @@ import type { RevisionStatus } from '../../shared/api/designs';
 import type { PageRequest } from '../../shared/api/paging';
 import type { AnalysisResult, DesignInput } from '../../shared/control';
 import { lockFor } from '../db/connection';
+import { rowsByIds } from '../db/filters';
 import { RevisionModel } from './model';
 
 /** A revision row. */
@@ -93,10 +94,7 @@ export async function latestRevisionSummaries(designIds: readonly number[]): Pro
  * @returns the numbers found, by id.
  */
 export async function revisionNumbers(ids: readonly number[]): Promise<Map<number, number>> {
-  const unique = [...new Set(ids)];
-  if (unique.length === 0) return new Map();
-  const rows = await RevisionModel.findAll({ where: { id: unique }, attributes: ['id', 'number'] });
-  return new Map(rows.map((m) => [m.id, m.number]));
+  return new Map((await rowsByIds(RevisionModel, ids, ['id', 'number'])).map((m) => [m.id, m.number]));
 }
 
 /**

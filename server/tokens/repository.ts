@@ -1,5 +1,6 @@
 // Access-token storage; returns plain objects.
 import type { Transaction } from 'sequelize';
+import { rowsByIds } from '../db/filters';
 import { AccessTokenModel } from './model';
 
 /** A token row (never the secret). */
@@ -63,4 +64,13 @@ export async function listTokens(ownerId: number | null): Promise<TokenRow[]> {
  */
 export async function updateToken(id: number, changes: { lastUsedAt?: Date; revokedAt?: Date }, transaction: Transaction): Promise<void> {
   await AccessTokenModel.update(changes, { where: { id }, transaction });
+}
+
+/**
+ * Token names by id, in one query.
+ * @param ids - token ids (one page of rows' worth).
+ * @returns the names found, by id.
+ */
+export async function tokenNames(ids: readonly number[]): Promise<Map<number, string>> {
+  return new Map((await rowsByIds(AccessTokenModel, ids, ['id', 'name'])).map((m) => [m.id, m.name]));
 }

@@ -1,6 +1,7 @@
 // Account storage; returns plain objects.
 import { QueryTypes, type Transaction } from 'sequelize';
 import { lockFor } from '../db/connection';
+import { rowsByIds } from '../db/filters';
 import type { Role } from '../../shared/api/common';
 import { UserModel } from './model';
 
@@ -58,9 +59,7 @@ export type PersonRow = Pick<UserRow, 'id' | 'name' | 'email'>;
  * @returns the people found, by id.
  */
 export async function peopleByIds(ids: readonly number[]): Promise<Map<number, PersonRow>> {
-  const unique = [...new Set(ids)];
-  if (unique.length === 0) return new Map();
-  const rows = await UserModel.findAll({ where: { id: unique }, attributes: ['id', 'name', 'email'] });
+  const rows = await rowsByIds(UserModel, ids, ['id', 'name', 'email']);
   return new Map(rows.map((m) => [m.id, { id: m.id, name: m.name, email: m.email }]));
 }
 

@@ -159,10 +159,29 @@ describe('GET /api/designs and GET /api/designs/:id/revisions', () => {
     expect(sql.join('\n')).not.toMatch(/analysis|"design"|`design`/);
     const first = await api().get(`/api/designs/${made.designId}/revisions`).set('Authorization', bearer(t.reviewer));
     expect(first.body).toHaveLength(PAGE_SIZES.revisions.default);
+    const before = await api().get(`/api/designs/${made.designId}/revisions?before=7&limit=1`).set('Authorization', bearer(t.reviewer));
+    expect(before.body.map((r: { number: number }) => r.number)).toEqual([6]);
+    expect(total(before)).toBe(6);
   });
 });
 
 describe('GET /api/admin/audit and GET /api/admin/mail', () => {
+  it('names the targets of an audit page with at most one query per kind of target, whatever the number of entries', async () => {
+    const one = await withSql(() => api().get('/api/admin/audit?limit=1').set('Authorization', bearer(t.admin)));
+    const all = await withSql(() => api().get('/api/admin/audit?limit=1000').set('Authorization', bearer(t.admin)));
+    type Entry = { action: string; targetType: string; targetLabel: string | null; details: { number?: number } };
+    const entries = all.res.body as Entry[];
+    expect(new Set(entries.map((e) => e.targetType))).toEqual(new Set(['user', 'design', 'revision', 'release']));
+    expect(entries.length).toBeGreaterThan(12);
+    // Lookups: releases, design names, people, tokens; the one-entry page needs at least none of them.
+    expect(all.sql.length - one.sql.length).toBeLessThanOrEqual(4);
+    expect(entries.find((e) => e.action === 'design.create' && e.targetLabel === 'Quay Cabinet West')).toBeDefined();
+    expect(entries.find((e) => e.targetType === 'user')!.targetLabel).toMatch(/@varsmith\.test$/);
+    const submitted = entries.find((e) => e.action === 'revision.submit' && e.targetLabel?.startsWith('quay cabinet east'));
+    expect(submitted?.targetLabel).toBe(`quay cabinet east r${submitted?.details.number}`);
+    expect(entries.find((e) => e.action === 'release.create')!.targetLabel).toMatch(/ \d+\.\d+\.\d+/);
+  });
+
   it('pages the audit log with the total', async () => {
     const first = await api().get('/api/admin/audit?limit=3').set('Authorization', bearer(t.admin));
     const next = await api().get('/api/admin/audit?limit=3&offset=3').set('Authorization', bearer(t.admin));

@@ -17,6 +17,7 @@ function answer(): void {
   server.use(
     http.get('*/api/designs/7/revisions', () => HttpResponse.json(revisions)),
     http.get('*/api/designs', () => HttpResponse.json([buildDesignDetail({ id: 7, name: 'Bay 4 rig' })])),
+    http.get('*/api/releases', () => HttpResponse.json([])),
   );
 }
 
@@ -60,5 +61,37 @@ describe('RevisionHistoryPage', () => {
     await waitFor(() => root.querySelector('[data-test="history-release-3"]') !== null);
     expect(root.querySelector('[data-test="history-release-2"]')).toBeNull();
     expect(root.querySelector('[data-test="history-release-1"]')).toBeNull();
+  });
+
+  it('pages the ledger through the server, and the last row of a page still compares with the one before it', async () => {
+    signInAs('reviewer');
+    const asked: string[] = [];
+    let designQuery: URLSearchParams | null = null;
+    server.use(
+      http.get('*/api/designs/7/revisions', ({ request }) => {
+        const query = new URL(request.url).searchParams;
+        asked.push(`${query.get('limit')}@${query.get('offset')}`);
+        const offset = Number(query.get('offset'));
+        const numbers = Array.from({ length: Number(query.get('limit')) }, (_, i) => 30 - offset - i).filter((n) => n >= 1);
+        return HttpResponse.json(numbers.map((n) => buildRevisionSummary({ id: 100 + n, designId: 7, number: n, summary: `set ${n}` })), { headers: { 'X-Total-Count': '30' } });
+      }),
+      http.get('*/api/designs', ({ request }) => {
+        designQuery = new URL(request.url).searchParams;
+        return HttpResponse.json([buildDesignDetail({ id: 7, name: 'Bay 4 rig' })]);
+      }),
+      http.get('*/api/releases', () => HttpResponse.json([])),
+    );
+    const { root } = await mountApp('/designs/7/revisions');
+    const table = () => root.querySelector('[data-test="history-table"]')?.textContent ?? '';
+    await waitFor(() => table().includes('set 30'));
+    expect(designQuery!.get('id')).toBe('7');
+    expect(table()).toContain('1–25 of 30');
+    expect(table()).not.toContain('set 5');
+    expect(root.querySelector('[data-test="history-compare-previous-6"]')!.getAttribute('href')).toBe('/revisions/105/compare/106');
+    [...root.querySelectorAll<HTMLButtonElement>('[data-test="history-table"] .q-table__bottom button')].find((b) => b.textContent?.includes('chevron_right'))!.click();
+    await waitFor(() => table().includes('set 5'));
+    expect(table()).toContain('26–30 of 30');
+    expect(asked).toEqual(['26@0', '26@25']);
+    expect(root.querySelector('[data-test="history-compare-previous-1"]')).toBeNull();
   });
 });

@@ -30,10 +30,17 @@ function detail(overrides: Partial<RevisionDetail> = {}): RevisionDetail {
   };
 }
 
+/** Query of the last history request (the page asks only for the revisions before the one shown). */
+let historyQuery: URLSearchParams | null = null;
+
 function answer(revision: RevisionDetail, history: RevisionListItem[] = [{ ...revision, reviews: revision.reviews }]): void {
   server.use(
     http.get(`*/api/revisions/${revision.id}`, () => HttpResponse.json(revision)),
-    http.get(`*/api/designs/${revision.designId}/revisions`, () => HttpResponse.json(history)),
+    http.get(`*/api/designs/${revision.designId}/revisions`, ({ request }) => {
+      historyQuery = new URL(request.url).searchParams;
+      const before = Number(historyQuery.get('before') ?? Infinity);
+      return HttpResponse.json(history.filter((r) => r.number < before).slice(0, Number(historyQuery.get('limit') ?? 50)));
+    }),
   );
 }
 
@@ -98,6 +105,7 @@ describe('RevisionPage', { timeout: 30000 }, () => {
     expect(root.querySelector('[data-test="revision-reviews"]')!.textContent).toContain('Margins fine now.');
     await waitFor(() => root.querySelector('[data-test="revision-compare-previous"]') !== null);
     expect(root.querySelector('[data-test="revision-compare-previous"]')!.getAttribute('href')).toBe('/revisions/11/compare/12');
+    expect(Object.fromEntries(historyQuery!.entries())).toEqual({ before: '2', limit: '1', offset: '0' });
     expect(root.querySelector('[data-test="review-decision"]')).toBeNull();
   });
 
