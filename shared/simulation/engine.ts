@@ -18,7 +18,7 @@
 import type { AdcCodes, SampledController } from './controller';
 import { SimulationError } from './errors';
 import { SourceWaveform, type GridSource } from './grid';
-import { TrapezoidalIntegrator } from './integrator';
+import { SUBSTEPS_MAX, TrapezoidalIntegrator } from './integrator';
 import {
   converterLossW, converterStoredEnergyJ, evaluateNetwork, networkLayout, OUTPUT, OUTPUT_BASE_COUNT, projectConsistent,
   type NetworkLayout, type NetworkMode, type PlantConfig,
@@ -65,6 +65,8 @@ export interface SystemRunConfig {
   nominalFrequencyHz: number;
   /** Called now and then with the fraction done; may throw to stop the run. */
   progress?: (fraction: number) => void;
+  /** Fewest integration substeps per interval (default 1; more only for convergence studies). */
+  substepsMin?: number;
 }
 
 /** Growable columns of (t, signals) points. */
@@ -216,7 +218,10 @@ class SystemRun {
   constructor(private readonly c: SystemRunConfig) {
     this.layout = networkLayout(c.plant);
     this.wave = new SourceWaveform(c.source);
-    this.integrator = new TrapezoidalIntegrator(c.plant, this.layout, this.wave.maxAngularFrequencyRadPerS());
+    if (c.substepsMin !== undefined && !(Number.isInteger(c.substepsMin) && c.substepsMin >= 1 && c.substepsMin <= SUBSTEPS_MAX)) {
+      throw new SimulationError('invalid-option', `substepsMin must be an integer from 1 to ${SUBSTEPS_MAX}`, 'substepsMin');
+    }
+    this.integrator = new TrapezoidalIntegrator(c.plant, this.layout, this.wave.maxAngularFrequencyRadPerS(), c.substepsMin ?? 1);
     this.x = Float64Array.from(c.initialState);
     this.y = new Float64Array(OUTPUT_BASE_COUNT + c.plant.loads.length);
     this.mode = { loadClosed: [...c.initialMode.loadClosed], rectifier: c.initialMode.rectifier };

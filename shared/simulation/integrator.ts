@@ -65,11 +65,13 @@ export class TrapezoidalIntegrator {
    * @param config - the plant.
    * @param layout - its layout.
    * @param sourceMaxRadPerS - highest angular frequency in the source voltage, rad/s.
+   * @param substepsMin - fewest substeps per interval (1; more for convergence studies).
    */
   constructor(
     private readonly config: PlantConfig,
     private readonly layout: NetworkLayout,
     private readonly sourceMaxRadPerS: number,
+    private readonly substepsMin = 1,
   ) {
     const n = layout.n;
     this.n = n;
@@ -108,14 +110,14 @@ export class TrapezoidalIntegrator {
   }
 
   /**
-   * Substeps for an interval in the current mode so that h * rho <= TRAPEZOID_STEP_RAD (at least 1, at most SUBSTEPS_MAX).
+   * Substeps for an interval in the current mode so that h * rho <= TRAPEZOID_STEP_RAD (at least `substepsMin`, at most SUBSTEPS_MAX).
    * @param intervalS - interval length, s.
    * @returns the substep count.
    */
   substeps(intervalS: number): number {
     const entry = this.requireMode();
     const rho = Math.max(entry.spectralRadiusRadPerS, this.sourceMaxRadPerS);
-    const wanted = Math.max(1, Math.ceil((intervalS * rho) / TRAPEZOID_STEP_RAD));
+    const wanted = Math.max(this.substepsMin, Math.ceil((intervalS * rho) / TRAPEZOID_STEP_RAD));
     if (wanted > SUBSTEPS_MAX) this.capped = true;
     return Math.min(wanted, SUBSTEPS_MAX);
   }

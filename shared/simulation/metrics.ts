@@ -153,6 +153,7 @@ export function computeMetrics(record: SystemRunRecord, ctx: MetricsContext): { 
     unitReactivePowerVar: unitQ,
     gridCurrentFundamentalRmsA: amplitudes[1] / Math.SQRT2,
     pccVoltageRmsV: vRms,
+    pccVoltageFundamentalRmsV: Math.hypot(pcc.re[1], pcc.im[1]) / Math.SQRT2,
     currentLimitA: ctx.currentLimitA,
     peakInverterCurrentRunA: record.peakInverterCurrentRunA,
     fundamentalTrackingErrorPercent: tracking,

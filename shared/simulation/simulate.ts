@@ -18,10 +18,10 @@ import { TRAPEZOID_STEP_RAD } from './integrator';
 import { rectifierLoadForPower } from './loads';
 import { computeMetrics } from './metrics';
 import { networkLayout, type PlantConfig } from './network';
-import { idleOperatingPoint } from './operatingPoint';
+import { idleOperatingPoint, type OperatingPoint } from './operatingPoint';
 import { createReferenceController } from './referenceController';
 import { DEFAULT_DURATION_S, finalLoadPower, METRIC_WINDOW_CYCLES, scenarioPlan } from './scenarios';
-import { designSensing, unipolarCompares } from './sensing';
+import { designSensing, unipolarCompares, type Quantization } from './sensing';
 import { BRIDGE_MODELS, SCENARIO_IDS, type ScenarioId, type SimulationOptions, type SimulationResult, type SimulationTraces } from './types';
 
 /** Longest recorded run, s. */
@@ -147,6 +147,29 @@ function optionalColumn(values: Float64Array, count: number): number[] | null {
   return out.some((v) => !Number.isFinite(v)) ? null : out;
 }
 
+/**
+ * The compare values already in the delay line when a run starts from an idle operating point: for
+ * each of the first d intervals, the bridge voltage of the idle steady state at the interval's
+ * midpoint over the DC-link reference.
+ *
+ * @param op - the idle operating point (bridge voltage phasor).
+ * @param design - the design (delay, DC-link reference, carrier counts, grid frequency).
+ * @param samplePeriodS - Ts, s.
+ * @param quantization - compare rounding.
+ * @returns d compare pairs, oldest first.
+ * @example
+ * idleCompares(op, sc3, 5e-5, 'firmware'); // => [{ compareA: 1250 + ..., compareB: ... }]
+ */
+export function idleCompares(op: OperatingPoint, design: DesignInput, samplePeriodS: number, quantization: Quantization): { compareA: number; compareB: number }[] {
+  const w0 = 2 * Math.PI * design.grid.frequencyHz;
+  const counts = designSensing(design).carrierCounts;
+  return Array.from({ length: design.sampling.computationDelaySamples }, (_, j) => {
+    const t = (j + 0.5) * samplePeriodS;
+    const vc = op.bridgeVoltage.re * Math.cos(w0 * t) - op.bridgeVoltage.im * Math.sin(w0 * t);
+    return unipolarCompares(vc / design.dcLink.voltageRefV, counts, quantization);
+  });
+}
+
 /** What may be plugged into a run besides the options. */
 export interface SimulationHooks {
   /** The controller in the loop (default: the double-precision reference of the design), with what it is. */
@@ -197,11 +220,7 @@ export function simulateScenario(design: DesignInput, analysis: AnalysisResult, 
   const op = idleOperatingPoint(plant, layout, mode, design.grid.voltageRmsV, f0, design.dcLink.voltageRefV);
   const delay = design.sampling.computationDelaySamples;
   const w0 = 2 * Math.PI * f0;
-  const initialCompares = Array.from({ length: delay }, (_, j) => {
-    const t = (j + 0.5) * samplePeriodS;
-    const vc = op.bridgeVoltage.re * Math.cos(w0 * t) - op.bridgeVoltage.im * Math.sin(w0 * t);
-    return unipolarCompares(vc / design.dcLink.voltageRefV, sensing.carrierCounts, options.quantization);
-  });
+  const initialCompares = idleCompares(op, design, samplePeriodS, options.quantization);
   const plugged = hooks.controller;
   const controller = plugged?.controller ?? createReferenceController(design, analysis, { coefficients: options.coefficients, quantization: options.quantization });
   controller.reset();
@@ -261,6 +280,9 @@ export function simulateScenario(design: DesignInput, analysis: AnalysisResult, 
   const notes: string[] = [SIMULATION_SAFETY_NOTE];
   if (!plugged) {
     notes.push(`The controller in the loop is the double-precision reference of the control step (${options.coefficients === 'double' ? 'designed double coefficients' : 'the quantized coefficients of the set, run in double precision'}), not the bit-exact firmware step.`);
+  }
+  if (options.model === 'switched' && plant.grid.inductanceH > 0 && design.filter.topology === 'L') {
+    notes.push('L filter on a weak grid, switched bridge: with no capacitance at the PCC in the model, the PCC voltage carries the switching pulses divided between the grid and filter inductances; the true power factor and the sampled grid voltage see them. Real installations have some capacitance there (EMI filter, cables).');
   }
   if (record.substepCapReached) notes.push('Some intervals needed more integration substeps than the cap allows: the stated step bound was not met there.');
   if (metrics.settling.note) notes.push(metrics.settling.note);

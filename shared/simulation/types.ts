@@ -67,8 +67,10 @@ export interface SimulationMetrics {
   unitReactivePowerVar: number;
   /** Fundamental grid current, A rms. */
   gridCurrentFundamentalRmsA: number;
-  /** PCC voltage, V rms. */
+  /** PCC voltage, V rms (switching content included). */
   pccVoltageRmsV: number;
+  /** Fundamental of the PCC voltage, V rms. */
+  pccVoltageFundamentalRmsV: number;
   /** The design's current reference limit, peak A. */
   currentLimitA: number;
   /** Largest |inverter current| over the whole recorded run, A. */
