@@ -3,10 +3,12 @@ import { SequelizeStorage, Umzug } from 'umzug';
 import type { Sequelize } from 'sequelize';
 import * as createUsers from './migrations/2026.12.01T23.30.00.create-users';
 import * as createTeamFlow from './migrations/2026.12.01T23.40.00.create-team-flow';
+import * as createRevisionSimulations from './migrations/2026.12.02T12.00.00.create-revision-simulations';
 
 const migrations = [
   { name: '2026.12.01T23.30.00.create-users', module: createUsers },
   { name: '2026.12.01T23.40.00.create-team-flow', module: createTeamFlow },
+  { name: '2026.12.02T12.00.00.create-revision-simulations', module: createRevisionSimulations },
 ];
 
 /**

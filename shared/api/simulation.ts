@@ -1,7 +1,7 @@
 // Options of a whole-system simulation run (CONTRACT section 10), shared by the CLI, the API and the
 // client. Defaults are the documented ones of shared/simulation (`defaultSimulationOptions`).
 import { z } from 'zod';
-import type { SimulationOptions } from '../simulation/types';
+import type { SimulationOptions, SimulationResult } from '../simulation/types';
 
 /** The scenarios of CONTRACT section 10 (same list as `SCENARIO_IDS` of shared/simulation). */
 export const scenarioSchema = z.enum(['steady', 'reactive-step', 'frequency-step', 'voltage-sag'], { error: 'must be one of steady, reactive-step, frequency-step, voltage-sag' });
@@ -39,12 +39,36 @@ export type SimulationOptionsInput = z.infer<typeof simulationOptionsSchema>;
 /** Body of `POST /api/simulate`: a design (checked by parseDesign) and the run's options. */
 export const simulateRequestSchema = simulationOptionsSchema.extend({ design: z.record(z.string(), z.unknown()) });
 
-/** Query of `GET /api/revisions/:id/simulation`. */
+/** Body of `POST /api/simulate`, parsed. */
+export type SimulateRequest = z.infer<typeof simulateRequestSchema>;
+
+/**
+ * Query of `GET /api/revisions/:id/simulation`: which stored run. A revision's run uses the
+ * coefficients the set ships (`quantized`) unless asked otherwise.
+ */
 export const revisionSimulationQuerySchema = z.strictObject({
   scenario: scenarioSchema.default('steady'),
   model: bridgeModelSchema.default('averaged'),
   harmonicTable: harmonicTableSchema.default('ieee-519'),
+  coefficients: z.enum(['double', 'quantized'], { error: 'must be "double" or "quantized"' }).default('quantized'),
 });
+
+/** A parsed revision-run query. */
+export type RevisionSimulationQuery = z.infer<typeof revisionSimulationQuerySchema>;
+
+/** A stored run of a revision, as `GET /api/revisions/:id/simulation` answers it. */
+export interface RevisionRun {
+  revisionId: number;
+  scenario: string;
+  model: string;
+  harmonicTable: string;
+  coefficients: string;
+  /** Varsmith version that computed the run. */
+  toolVersion: string;
+  /** When it was computed and stored, ISO 8601. */
+  computedAt: string;
+  result: SimulationResult;
+}
 
 /**
  * The simulation's options from parsed input (firmware rounding of codes and counts always: a run
