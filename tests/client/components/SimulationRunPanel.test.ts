@@ -44,7 +44,7 @@ describe('SimulationRunPanel', () => {
     await field(wrapper, 'simulation-duration').setValue('0.2');
     await wrapper.find('[data-test="simulation-run"]').trigger('click');
     expect(calls).toHaveLength(1);
-    expect(calls[0].request.options).toMatchObject({ scenario: 'steady', model: 'averaged', durationS: 0.2, coefficients: 'quantized', harmonicTable: 'ieee-519', quantization: 'firmware' });
+    expect(calls[0].request.options).toMatchObject({ scenario: 'steady', model: 'averaged', durationS: 0.2, coefficients: 'double', harmonicTable: 'ieee-519', quantization: 'firmware' });
     expect(calls[0].request.options).not.toHaveProperty('shortCircuitRatio');
     calls[0].progress(0.4);
     await flushPromises();
