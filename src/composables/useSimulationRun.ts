@@ -2,8 +2,8 @@
 // main thread otherwise, e.g. in component tests), with progress and cancel. Cancelling terminates
 // the worker; the next run starts a fresh one.
 import { inject, onBeforeUnmount, ref, shallowRef, type InjectionKey, type Ref } from 'vue';
-import type { DesignInput } from '../../shared/control';
-import type { SimulationOptions, SimulationResult } from '../../shared/simulation';
+import { analyzeDesign, type DesignInput } from '../../shared/control';
+import { simulateScenario, type SimulationOptions, type SimulationResult } from '../../shared/simulation';
 import type { SimulationReply, SimulationRequest } from '../workers/simulationProtocol';
 
 /** A started run: its final reply, and how to stop it. */
@@ -49,10 +49,13 @@ function workerRunner(): SimulationRunner | null {
   };
 }
 
-/** The same computation on the main thread (no cancel once started: the core is synchronous). */
+/**
+ * The same computation on the main thread (no cancel once started: the core is synchronous). The
+ * core is imported statically: only the lazily loaded run panel uses this composable.
+ */
 const directRunner: SimulationRunner = (request, onProgress) => ({
   done: (async (): Promise<SimulationReply> => {
-    const [{ analyzeDesign }, { simulateScenario }] = await Promise.all([import('../../shared/control'), import('../../shared/simulation')]);
+    await Promise.resolve();
     const started = performance.now();
     try {
       const analysis = analyzeDesign(request.design, { sweepPoints: 0, responseSamples: 0 });
