@@ -3,7 +3,7 @@
 import { use } from 'echarts/core';
 import { BarChart } from 'echarts/charts';
 import type { SimulationResult, SimulationTraces } from '../../shared/simulation';
-import { cell } from '../composables/analysisView';
+import { formatNumber, formatQuantity } from '../composables/format';
 import { AXIS_STYLE, FIXED_GRID, PLOT_COLORS, xyData } from './analysisCharts';
 
 use([BarChart]);
@@ -16,7 +16,7 @@ export interface TraceLine {
   dashed?: boolean;
 }
 
-const formatter = (v: number) => cell(v, 4);
+const formatter = (v: number) => formatNumber(v, 4);
 
 /**
  * Line plot of traces against time in milliseconds, one or two y axes.
@@ -90,7 +90,7 @@ export function harmonicPlotOption(result: SimulationResult) {
     animation: false,
     color: PLOT_COLORS,
     legend: { top: 0, data: ['simulated', 'limit'] },
-    tooltip: { trigger: 'axis', valueFormatter: (v: number) => `${cell(v, 3)} %` },
+    tooltip: { trigger: 'axis', valueFormatter: (v: number) => formatQuantity(v, '%', 3) },
     grid: { ...FIXED_GRID, left: 64, right: 16, top: 36, bottom: 44 },
     xAxis: { type: 'category', name: 'harmonic order', nameLocation: 'middle', nameGap: 26, data: bars.orders.map(String), ...AXIS_STYLE },
     yAxis: { type: 'log', name: '% of fundamental', min: 0.001, ...AXIS_STYLE, axisLabel: { ...AXIS_STYLE.axisLabel, formatter } },
