@@ -18,11 +18,11 @@
  * Åström & Hägglund, "Advanced PID Control", 2006, sec. 3.5, from memory). The resonator states are
  * not advanced in a sample whose modulation is clamped (conditional integration, same source).
  *
- * Coefficients: the designed doubles of the analysis (`double`), or the quantized integers divided
- * by 2^F and by the block's scale factor g (`quantized`) — the coefficients the set ships, run in
+ * Coefficients: the designed doubles of the analysis (`double`), or the coefficients the set ships
+ * (`quantized`: integers or binary32 values in the set's form, see `sectionCoefficients`), run in
  * double precision: the resonance drift of a short word shows up, its arithmetic rounding does not.
  */
-import { perUnitBases, resolveSignals, type AnalysisResult, type BlockId, type DesignInput, type SectionResult } from '../control';
+import { dequantizeDelta, directFormFromDelta, perUnitBases, resolveSignals, type AnalysisResult, type BlockId, type DesignInput, type SectionResult } from '../control';
 import type { AdcCodes, ControllerOutput, SampledController } from './controller';
 import { designSensing, unipolarCompares, type Quantization } from './sensing';
 
@@ -103,22 +103,31 @@ export class Df1Section {
 }
 
 /**
- * The SI coefficients of one analysed section.
+ * The SI coefficients of one analysed section, as Direct Form I taps.
+ *
+ * `double`: the designed section (b, a). `quantized`: what the set ships, divided back to SI (the
+ * numerator by the block's scale factor g, CONTRACT section 7): the binary32 coefficients when the
+ * design's arithmetic is float32; the delta-operator integers times 2^-F, turned into Direct Form I
+ * taps, for a quantization-robust section; else the Direct Form I integers times 2^-F.
  *
  * @param section - a section of the analysis result.
- * @param coefficients - `double` (b, a) or `quantized` (fixed integers / 2^F, numerator divided by g when the section is scaled).
+ * @param coefficients - `double` or `quantized`.
  * @returns `{ b, a }` with three entries each and a[0] = 1.
  * @example
  * sectionCoefficients(section, 'double'); // => { b: section.b, a: section.a }
  */
 export function sectionCoefficients(section: SectionResult, coefficients: CoefficientSet): { b: number[]; a: number[] } {
   if (coefficients === 'double') return { b: [...section.b], a: [1, section.a[1], section.a[2]] };
-  const scale = 2 ** -section.fixed.fracBits;
   const g = section.scaled?.gain ?? 1;
-  return {
-    b: section.fixed.b.map((v) => (v * scale) / g),
-    a: [1, section.fixed.a[1] * scale, section.fixed.a[2] * scale],
-  };
+  const unscale = (taps: { b: number[]; a: number[] }) => ({ b: taps.b.map((v) => v / g), a: [1, taps.a[1], taps.a[2]] });
+  const shipped = section.float32;
+  if (shipped) {
+    const c = shipped.coefficients;
+    return unscale(shipped.form === 'delta-operator' ? directFormFromDelta(c) : { b: [c[0], c[1], c[2]], a: [1, c[3], c[4]] });
+  }
+  if (section.structure === 'delta-operator' && section.delta) return unscale(directFormFromDelta(dequantizeDelta(section.delta.fixed)));
+  const scale = 2 ** -section.fixed.fracBits;
+  return unscale({ b: section.fixed.b.map((v) => v * scale), a: section.fixed.a.map((v) => v * scale) });
 }
 
 function blockSections(analysis: AnalysisResult, id: BlockId, coefficients: CoefficientSet): Df1Section[] {

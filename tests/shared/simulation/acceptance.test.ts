@@ -53,6 +53,13 @@ describe.each(DEMO_FILES.map((f) => [f] as const))('%s', (file) => {
   });
 });
 
+// Fundamental tracking error (percent of rated peak) of SC-2's shipped coefficients in a word length and structure.
+function shippedTracking(wordBits: 16 | 32, structure: 'direct-form-1' | 'quantization-robust'): number {
+  const d = demoDesign('sc2-port-16bit-230v.json');
+  d.fixedPoint = { ...d.fixedPoint, wordBits, structure };
+  return simulateScenario(d, analysisOf(d), { ...defaultSimulationOptions('steady'), coefficients: 'quantized' }).metrics.fundamentalTrackingErrorPercent ?? NaN;
+}
+
 describe('the controller seam', () => {
   const design = demoDesign('sc3-bench-l-120v.json');
   const analysis = analysisOf(design);
@@ -83,13 +90,15 @@ describe('the controller seam', () => {
     // The SC-2 demo's 16-bit h1 resonator lands at 49.74 Hz instead of 50 Hz (the analysis says
     // so): its gain at 50 Hz drops, and the fundamental of the tracking error grows. This compares
     // the coefficients the sets ship; the bit-exact arithmetic adds its own rounding on top.
-    const run = (wordBits: 16 | 32) => {
-      const d = demoDesign('sc2-port-16bit-230v.json');
-      d.fixedPoint.wordBits = wordBits;
-      return simulateScenario(d, analysisOf(d), { ...defaultSimulationOptions('steady'), coefficients: 'quantized' }).metrics.fundamentalTrackingErrorPercent ?? NaN;
-    };
-    const port16 = run(16);
-    const twin32 = run(32);
+    const port16 = shippedTracking(16, 'direct-form-1');
+    const twin32 = shippedTracking(32, 'direct-form-1');
     expect(port16, `16-bit ${port16} % vs 32-bit ${twin32} %`).toBeGreaterThan(1.05 * twin32);
+  });
+
+  it('with the quantization-robust structure the same 16-bit port tracks like its 32-bit twin (within 2 %)', () => {
+    // The delta-operator form keeps the resonance where it was designed in a 16-bit word.
+    const robust16 = shippedTracking(16, 'quantization-robust');
+    const twin32 = shippedTracking(32, 'direct-form-1');
+    expectClose(robust16, twin32, { rtol: 0.02 }, 'fundamental tracking error, %');
   });
 });
