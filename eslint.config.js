@@ -24,13 +24,14 @@ export default tseslint.config(
       'vue/html-self-closing': 'off',
     },
   },
-  // src/ and server/ reach the core and the firmware model only through their barrels.
+  // src/ and server/ reach the core, the firmware model and the simulation only through their barrels.
   {
     files: ['src/**/*.{ts,vue}', 'server/**/*.ts'],
     rules: {
       'no-restricted-imports': ['error', { patterns: [
         { group: ['**/shared/control/*', '!**/shared/control/index', '!**/shared/control'], message: 'Import the core only from shared/control (its index.ts).' },
         { group: ['**/shared/firmware/*', '!**/shared/firmware/index', '!**/shared/firmware'], message: 'Import the firmware model only from shared/firmware (its index.ts).' },
+        { group: ['**/shared/simulation/*', '!**/shared/simulation/index', '!**/shared/simulation'], message: 'Import the simulation only from shared/simulation (its index.ts).' },
       ] }],
     },
   },
@@ -38,14 +39,24 @@ export default tseslint.config(
   {
     files: ['server/**/routes.ts'],
     rules: {
-      'no-restricted-imports': ['error', { paths: ['sequelize'], patterns: [{ group: ['**/model', '**/models/*'], message: 'Routes call services; only repositories use models.' }, { group: ['**/shared/control/*', '!**/shared/control/index', '!**/shared/control'], message: 'Import the core only from shared/control.' }] }],
+      'no-restricted-imports': ['error', { paths: ['sequelize'], patterns: [{ group: ['**/model', '**/models/*'], message: 'Routes call services; only repositories use models.' }, { group: ['**/shared/control/*', '!**/shared/control/index', '!**/shared/control'], message: 'Import the core only from shared/control.' }, { group: ['**/shared/simulation/*', '!**/shared/simulation/index', '!**/shared/simulation'], message: 'Import the simulation only from shared/simulation.' }, { group: ['**/shared/firmware/*', '!**/shared/firmware/index', '!**/shared/firmware'], message: 'Import the firmware model only from shared/firmware.' }] }],
     },
   },
   // The core is pure: nothing from frameworks, node or the app; only mathjs.
+  // The simulation is pure too: it reaches the core only through the core's barrel, and the core never imports it.
+  {
+    files: ['shared/simulation/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { paths: [...frameworks, 'zod'], patterns: [
+        { group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*'], message: 'shared/simulation imports nothing outside itself but the shared/control barrel.' },
+        { group: ['../control/*', '../firmware/*'], message: 'Import the core and the firmware model only from their barrels (../control, ../firmware).' },
+      ] }],
+    },
+  },
   {
     files: ['shared/control/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', { paths: [...frameworks, 'zod'], patterns: [{ group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*', '../firmware', '../firmware/*'], message: 'shared/control imports nothing outside itself but mathjs.' }] }],
+      'no-restricted-imports': ['error', { paths: [...frameworks, 'zod'], patterns: [{ group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*', '../firmware', '../firmware/*', '../simulation', '../simulation/*'], message: 'shared/control imports nothing outside itself but mathjs (never the firmware model or the simulation built on it).' }] }],
     },
   },
   // The firmware model builds on the core (through its barrel) and nothing else.
@@ -53,7 +64,7 @@ export default tseslint.config(
     files: ['shared/firmware/**/*.ts'],
     rules: {
       'no-restricted-imports': ['error', { paths: [...frameworks, 'zod', 'mathjs'], patterns: [
-        { group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*'], message: 'shared/firmware imports only shared/control.' },
+        { group: ['node:*', 'fs', 'path', '**/src/**', '**/server/**', '../api', '../api/*', '../simulation', '../simulation/*'], message: 'shared/firmware imports only shared/control.' },
         { group: ['../control/*', '!../control/index'], message: 'shared/firmware imports the core only from shared/control/index.' },
       ] }],
     },

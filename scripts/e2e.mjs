@@ -150,6 +150,19 @@ async function main() {
       expect(latency.medianMs !== null, 'the plots never redrew after a keystroke');
     });
 
+    await step('engineer runs the time-domain run in the browser worker: progress, metrics, plots drawn', async () => {
+      const page = pages.engineer;
+      expect(designId !== null, 'no design open');
+      await page.locator('[data-test="tab-run"]').click();
+      await page.locator('[data-test="simulation-run"]').click();
+      await page.locator('[data-test="simulation-metrics"]').waitFor({ timeout: 120_000 });
+      const pf = Number(await page.locator('[data-test="metric-pf"]').textContent());
+      expect(pf >= 0.98, `the steady run's grid power factor is ${pf}`);
+      await page.locator('[data-test="simulation-plots"] canvas').first().waitFor({ timeout: 15_000 });
+      await shot(page, 'engineer-time-domain-run');
+      process.stdout.write(`        ${(await page.locator('[data-test="simulation-summary"]').textContent()).trim()}\n`);
+    });
+
     await step('engineer sends the design for review', async () => {
       const page = pages.engineer;
       expect(designId !== null, 'no design open');
@@ -344,6 +357,19 @@ async function main() {
       await page.locator('[data-test="revision-release-link"]').waitFor({ timeout: 15_000 });
       expect((await page.locator('[data-test="revision-release-link"]').textContent()).includes(release.version), 'the revision does not link back to its release');
       await shot(page, 'engineer-revision-page');
+    });
+
+    await step('the reviewer opens the revision page and its Time-domain run: the stored run, its stamp, plots drawn', async () => {
+      const reviewer = pages.reviewer;
+      const revisionUrl = pages.engineer.url();
+      expect(/\/revisions\/\d+$/.test(new URL(revisionUrl).pathname), `not on a revision page: ${revisionUrl}`);
+      await reviewer.goto(revisionUrl);
+      await reviewer.locator('[data-test="tab-run"]').click();
+      const card = reviewer.locator('[data-test="revision-simulation"]');
+      await card.locator('[data-test="simulation-metrics"]').waitFor({ timeout: 120_000 });
+      expect((await card.locator('[data-test="revision-simulation-stamp"]').textContent()).includes('Varsmith'), 'no computed-by stamp on the stored run');
+      await card.locator('canvas').first().waitFor({ timeout: 15_000 });
+      await shot(reviewer, 'reviewer-revision-run');
     });
 
     await step('admin sees the release in the audit trail and the mails in the outbox', async () => {

@@ -11,6 +11,7 @@ import { mailRoutes } from './mail/routes';
 import { releaseRoutes } from './releases/routes';
 import { revisionRoutes } from './revisions/routes';
 import { reviewRoutes } from './reviews/routes';
+import { simulationRoutes } from './simulation/routes';
 import { tokenRoutes } from './tokens/routes';
 import { userRoutes } from './users/routes';
 import { createAuthenticator } from './middleware/authenticate';
@@ -30,7 +31,7 @@ const healthRoutes = [
  * @returns the route table.
  */
 export function routeTable(): RouteDef[] {
-  return [...healthRoutes, ...authRoutes, ...analyzeRoutes, ...designRoutes, ...revisionRoutes, ...reviewRoutes, ...releaseRoutes, ...tokenRoutes, ...userRoutes, ...mailRoutes, ...auditRoutes];
+  return [...healthRoutes, ...authRoutes, ...analyzeRoutes, ...designRoutes, ...revisionRoutes, ...reviewRoutes, ...releaseRoutes, ...tokenRoutes, ...userRoutes, ...mailRoutes, ...auditRoutes, ...simulationRoutes];
 }
 
 /**

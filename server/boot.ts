@@ -8,6 +8,7 @@ import { migrate } from './db/migrate';
 import { initModels } from './db/models';
 import { seedIfEmpty } from './db/seed';
 import { createMailer } from './mail/service';
+import { createSimulationPool, SIMULATION_BUDGET_MS } from './simulation/pool';
 import type { AppContext } from './middleware/context';
 
 /** A ready app and what it holds. */
@@ -31,12 +32,14 @@ export async function boot(config: Config, options: { seed?: boolean; clientDir?
   initModels(db.sequelize);
   const log = (m: string) => { if (config.logLevel !== 'silent') process.stderr.write(`${m}\n`); };
   const mailer = await createMailer(config, db, log);
-  const ctx: AppContext = { config, db, mailer };
+  // One simulation thread: a run keeps a core busy for up to seconds; the other core serves requests.
+  const simulation = createSimulationPool({ threads: 1, budgetMs: SIMULATION_BUDGET_MS });
+  const ctx: AppContext = { config, db, mailer, simulation };
   // Processes starting together on one PostgreSQL database migrate and seed one after the other.
   const seeded = await db.exclusively(async () => {
     await migrate(db.sequelize);
     return options.seed === false ? false : seedIfEmpty(ctx);
   });
   const app = createApp(ctx, { clientDir: options.clientDir });
-  return { app, ctx, seeded, close: async () => { await mailer.close(); await db.close(); } };
+  return { app, ctx, seeded, close: async () => { await simulation.close(); await mailer.close(); await db.close(); } };
 }

@@ -2,12 +2,14 @@ import { Command } from 'commander';
 import { registerAnalyze } from './cli/analyze';
 import { registerExport } from './cli/export';
 import { registerPull } from './cli/pull';
+import { registerSimulate } from './cli/simulate';
 
 // `npx varsmith <command>`: see CONTRACT section 4. Each command lives in server/cli/<command>.ts.
 const program = new Command('varsmith').description('Varsmith controller coefficient tool').exitOverride();
 registerAnalyze(program);
 registerExport(program);
 registerPull(program);
+registerSimulate(program);
 
 try {
   await program.parseAsync(process.argv);

@@ -5,12 +5,14 @@ import * as createUsers from './migrations/2026.12.01T23.30.00.create-users';
 import * as createTeamFlow from './migrations/2026.12.01T23.40.00.create-team-flow';
 import * as immutabilityOnPostgres from './migrations/2026.12.10T09.00.00.immutability-on-postgres';
 import * as listIndexes from './migrations/2026.12.10T09.10.00.list-indexes';
+import * as createRevisionSimulations from './migrations/2026.12.10T09.20.00.create-revision-simulations';
 
 const migrations = [
   { name: '2026.12.01T23.30.00.create-users', module: createUsers },
   { name: '2026.12.01T23.40.00.create-team-flow', module: createTeamFlow },
   { name: '2026.12.10T09.00.00.immutability-on-postgres', module: immutabilityOnPostgres },
   { name: '2026.12.10T09.10.00.list-indexes', module: listIndexes },
+  { name: '2026.12.10T09.20.00.create-revision-simulations', module: createRevisionSimulations },
 ];
 
 /**

@@ -8,6 +8,7 @@ import { initReleaseModel } from '../releases/model';
 import { initAccessTokenModel } from '../tokens/model';
 import { initAuditEventModel } from '../audit/model';
 import { initMailMessageModel } from '../mail/model';
+import { initRevisionSimulationModel } from '../simulation/model';
 
 /**
  * Initialises all models on one connection.
@@ -22,4 +23,5 @@ export function initModels(sequelize: Sequelize): void {
   initAccessTokenModel(sequelize);
   initAuditEventModel(sequelize);
   initMailMessageModel(sequelize);
+  initRevisionSimulationModel(sequelize);
 }

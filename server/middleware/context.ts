@@ -2,6 +2,7 @@
 import type { Config } from '../config';
 import type { Database } from '../db/connection';
 import type { Mailer } from '../mail/service';
+import type { SimulationPool } from '../simulation/pool';
 import type { Role } from '../../shared/api/common';
 
 /** Shared services of one app instance. */
@@ -9,6 +10,8 @@ export interface AppContext {
   config: Config;
   db: Database;
   mailer: Mailer;
+  /** Whole-system simulations, off the event loop. */
+  simulation: SimulationPool;
 }
 
 /** A signed-in person. */

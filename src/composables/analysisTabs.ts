@@ -4,7 +4,7 @@
 import type { AppTab } from '../components/AppTabBar.vue';
 
 /** Names of the analysis views. */
-export type AnalysisTabName = 'findings' | 'shape' | 'steps' | 'poles' | 'resonances' | 'fixed';
+export type AnalysisTabName = 'findings' | 'shape' | 'steps' | 'poles' | 'resonances' | 'fixed' | 'run';
 
 /** The analysis views with their plain names. */
 export const ANALYSIS_TABS: readonly (AppTab & { name: AnalysisTabName })[] = [
@@ -14,4 +14,5 @@ export const ANALYSIS_TABS: readonly (AppTab & { name: AnalysisTabName })[] = [
   { name: 'poles', label: 'Pole map', icon: 'blur_circular' },
   { name: 'resonances', label: 'Resonance frequencies', icon: 'graphic_eq' },
   { name: 'fixed', label: 'Fixed point', icon: 'memory' },
+  { name: 'run', label: 'Time-domain run', icon: 'timeline' },
 ];

@@ -10,6 +10,7 @@ import type { AnalysisRunner } from '../../../src/composables/useLiveAnalysis';
 import { newDesignTemplate } from '../../../src/stores/designs';
 import { buildAnalysis, buildAnalysisWithPlots } from '../analysisFixture';
 import { buildRevisionSummary } from '../fixtures';
+import { buildSimulationResult } from '../simulationFixture';
 import { mountApp, settle, waitFor } from '../mountApp';
 import { signInAs, TEST_USERS } from '../session';
 import { server } from '../setup';
@@ -70,6 +71,27 @@ describe('RevisionPage', { timeout: 30000 }, () => {
     expect(root.querySelector('[data-test="findings"]')!.textContent).toContain('Resonance h1 moves 2.61 Hz');
     await clickTab(root, 'shape');
     await waitFor(() => root.querySelector('.chart-stub') !== null);
+  });
+
+  it('shows a reviewer the stored time-domain run of the revision (shipped coefficients) in its own tab', async () => {
+    signInAs('reviewer');
+    answer(detail());
+    let asked: string | null = null;
+    server.use(http.get('*/api/revisions/11/simulation', ({ request }) => {
+      asked = new URL(request.url).search;
+      return HttpResponse.json({
+        revisionId: 11, scenario: 'steady', model: 'averaged', harmonicTable: 'ieee-519', coefficients: 'quantized',
+        toolVersion: '0.1.0', computedAt: '2026-12-02T12:00:00.000Z', result: buildSimulationResult(),
+      });
+    }));
+    const { root } = await mountApp('/revisions/11', { analysisRunner: plotRunner });
+    await waitFor(() => root.querySelector('[data-test="revision-inputs"]') !== null);
+    expect(asked).toBeNull(); // nothing is computed before the tab is opened
+    await clickTab(root, 'run');
+    await waitFor(() => root.querySelector('[data-test="revision-simulation-stamp"]') !== null);
+    expect(asked).toBe('?scenario=steady&model=averaged&harmonicTable=ieee-519&coefficients=quantized');
+    expect(root.querySelector('[data-test="revision-simulation"]')!.textContent).toContain('Time-domain run of r1');
+    expect(root.querySelector('[data-test="metric-pf"]')).not.toBeNull();
   });
 
   it('records the verdict of another reviewer from the page', async () => {
